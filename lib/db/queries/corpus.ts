@@ -1,0 +1,29 @@
+import "server-only";
+import { Op } from "sequelize";
+import { db } from "@/lib/db";
+
+export interface CorpusFigures {
+  papers: number;
+  verifiedPapers: number;
+  verifiedComparisons: number;
+  /** verified comparisons with at least one error- or warning-level finding */
+  flaggedComparisons: number;
+}
+
+/** The headline figures of the landing page; only verified entries count as corpus. */
+export async function readCorpusFigures(): Promise<CorpusFigures> {
+  const { models } = await db();
+  const verified = { model: models.Paper, as: "paper", attributes: [], where: { state: "verified" }, required: true };
+  const [papers, verifiedPapers, verifiedComparisons, flaggedComparisons] = await Promise.all([
+    models.Paper.count(),
+    models.Paper.count({ where: { state: "verified" } }),
+    models.Comparison.count({ include: [verified] }),
+    models.Flag.count({
+      distinct: true,
+      col: "comparisonId",
+      where: { severity: { [Op.in]: ["error", "warning"] }, comparisonId: { [Op.ne]: null } },
+      include: [verified],
+    }),
+  ]);
+  return { papers, verifiedPapers, verifiedComparisons, flaggedComparisons };
+}

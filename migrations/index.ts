@@ -1,0 +1,12 @@
+import type { QueryInterface } from "sequelize";
+import * as initialSchema from "./0001-initial-schema";
+
+// Every migration, in order. To add one: create `NNNN-what-it-does.ts` exporting up/down, and list it
+// here. A static list (instead of a glob) works the same under tsx, vitest and any bundler.
+export interface Migration {
+  name: string;
+  up: (params: { context: QueryInterface }) => Promise<void>;
+  down: (params: { context: QueryInterface }) => Promise<void>;
+}
+
+export const migrations: Migration[] = [{ name: "0001-initial-schema", ...initialSchema }];
