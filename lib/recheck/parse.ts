@@ -1,0 +1,258 @@
+// Turns the printed cells of one comparison into numbers with their rounding intervals, collecting a
+// FieldError (named by its DESIGN §5 sheet column) for every cell that cannot be read. Empty cells are
+// "not reported" (null), never zero.
+import { isBlank, readPrintedInteger, readPrintedNumber, readPrintedP, type PrintedNumber, type PrintedP } from "./printed";
+import {
+  ESTIMATORS,
+  INVARIANCE_CLAIMS,
+  METHODS,
+  NESTED_VALUES,
+  PREFERRED_VALUES,
+  ROBUST_ESTIMATORS,
+  type ComparisonInput,
+  type Estimator,
+  type FieldError,
+  type InvarianceClaim,
+  type Method,
+  type ModelInput,
+  type Nested,
+  type Preferred,
+  type SampleInput,
+} from "./types";
+
+export interface ParsedModel {
+  label: string;
+  /** null when not reported */
+  estimator: Estimator | null;
+  /** the estimator's statistic is a scaled (robust) chi-square, by name or by a printed scaled statistic */
+  robust: boolean;
+  chisq: PrintedNumber | null;
+  df: number | null;
+  p: PrintedP | null;
+  chisqScaled: PrintedNumber | null;
+  scaling: PrintedNumber | null;
+  cfi: PrintedNumber | null;
+  tli: PrintedNumber | null;
+  rmsea: PrintedNumber | null;
+  rmseaLo: PrintedNumber | null;
+  rmseaHi: PrintedNumber | null;
+  srmr: PrintedNumber | null;
+  aic: PrintedNumber | null;
+  bic: PrintedNumber | null;
+  loglik: PrintedNumber | null;
+  loglikScaling: PrintedNumber | null;
+  npar: number | null;
+  nObserved: number | null;
+  nFixedX: number | null;
+  meanStructure: boolean | null;
+  baselineChisq: PrintedNumber | null;
+  baselineDf: number | null;
+}
+
+export interface ParsedSample {
+  n: number | null;
+  groups: number;
+}
+
+export interface ParsedComparison {
+  label: string;
+  method: Method | null;
+  nested: Nested;
+  alpha: number;
+  dChisq: PrintedNumber | null;
+  dDf: number | null;
+  dP: PrintedP | null;
+  dCfi: PrintedNumber | null;
+  dRmsea: PrintedNumber | null;
+  dAic: PrintedNumber | null;
+  dBic: PrintedNumber | null;
+  preferred: Preferred | null;
+  invarianceClaimed: InvarianceClaim | null;
+  sample: ParsedSample;
+  restricted: ParsedModel;
+  free: ParsedModel;
+}
+
+/** What a numeric cell may hold. */
+type NumberKind = "any" | "nonNegative" | "positive" | "unit";
+
+const KIND_RULE: Record<NumberKind, string> = {
+  any: "",
+  nonNegative: "cannot be negative",
+  positive: "must be greater than zero",
+  unit: "must lie between 0 and 1",
+};
+
+function readNumberCell(text: string | undefined, column: string, kind: NumberKind, errors: FieldError[]): PrintedNumber | null {
+  if (isBlank(text)) return null;
+  const printed = readPrintedNumber(text);
+  if (printed === null) {
+    errors.push({ column, message: `"${text.trim()}" is not a number (use a decimal point and no thousands separators)` });
+    return null;
+  }
+  const v = printed.value;
+  const bad = kind === "nonNegative" ? v < 0 : kind === "positive" ? v <= 0 : kind === "unit" ? v < 0 || v > 1 : false;
+  if (bad) {
+    errors.push({ column, message: `${printed.text} ${KIND_RULE[kind]}` });
+    return null;
+  }
+  if (kind === "nonNegative" || kind === "unit") {
+    // "0.00" stands for [0, .005]: a statistic cannot be below zero, so the interval is clipped there.
+    if (printed.lo < 0) printed.lo = 0;
+    if (kind === "unit" && printed.hi > 1) printed.hi = 1;
+  }
+  return printed;
+}
+
+/** min: the smallest allowed integer (null = any sign, e.g. df, whose negative values are a finding). */
+function readIntegerCell(text: string | undefined, column: string, min: number | null, errors: FieldError[]): number | null {
+  if (isBlank(text)) return null;
+  const value = readPrintedInteger(text);
+  if (value === null) {
+    const isNumber = readPrintedNumber(text) !== null;
+    errors.push({ column, message: isNumber ? `${text.trim()} is not a whole number` : `"${text.trim()}" is not a whole number` });
+    return null;
+  }
+  if (min !== null && value < min) {
+    errors.push({ column, message: min === 1 ? `${value} must be at least 1` : `${value} cannot be negative` });
+    return null;
+  }
+  return value;
+}
+
+function readPCell(text: string | undefined, column: string, alpha: number, errors: FieldError[]): PrintedP | null {
+  if (isBlank(text)) return null;
+  const result = readPrintedP(text, alpha);
+  if (!result.ok) {
+    errors.push({ column, message: result.message });
+    return null;
+  }
+  return result.value;
+}
+
+function readChoiceCell<T extends string>(
+  text: string | undefined,
+  column: string,
+  choices: readonly T[],
+  errors: FieldError[],
+  aliases?: Record<string, T>,
+): T | null {
+  if (isBlank(text)) return null;
+  const key = text.trim().toLowerCase();
+  for (const choice of choices) if (choice.toLowerCase() === key) return choice;
+  if (aliases !== undefined && key in aliases) return aliases[key];
+  errors.push({ column, message: `"${text.trim()}" is not one of ${choices.join(", ")}` });
+  return null;
+}
+
+const YES_NO_ALIASES: Record<string, "yes" | "no"> = { y: "yes", n: "no", true: "yes", false: "no", "1": "yes", "0": "no" };
+
+const SB_ESTIMATORS: ReadonlySet<Estimator> = new Set(ROBUST_ESTIMATORS);
+
+/** Reads one model's cells; `prefix` is "a_", "b_" or "" (a model checked on its own). */
+export function parseModel(input: ModelInput, prefix: string, alpha: number, errors: FieldError[]): ParsedModel {
+  const estimator = readChoiceCell(input.estimator, prefix + "estimator", ESTIMATORS, errors);
+  const chisqScaled = readNumberCell(input.chisqScaled, prefix + "chisq_scaled", "nonNegative", errors);
+  const scaling = readNumberCell(input.scaling, prefix + "scaling", "positive", errors);
+  const nObserved = readIntegerCell(input.nObserved, prefix + "n_observed", 1, errors);
+  const nFixedX = readIntegerCell(input.nFixedX, prefix + "n_fixed_x", 0, errors);
+  if (nObserved !== null && nFixedX !== null && nFixedX > nObserved) {
+    errors.push({ column: prefix + "n_fixed_x", message: `${nFixedX} fixed-x variables but only ${nObserved} observed variables` });
+  }
+  const meanStructure = readChoiceCell(input.meanStructure, prefix + "mean_structure", ["yes", "no"] as const, errors, YES_NO_ALIASES);
+  return {
+    label: input.label?.trim() ?? "",
+    estimator,
+    // A model without a named estimator but with a printed scaled statistic or scaling factor was
+    // evidently fitted with a robust correction.
+    robust: estimator !== null ? SB_ESTIMATORS.has(estimator) : chisqScaled !== null || scaling !== null,
+    chisq: readNumberCell(input.chisq, prefix + "chisq", "nonNegative", errors),
+    df: readIntegerCell(input.df, prefix + "df", null, errors),
+    p: readPCell(input.p, prefix + "p", alpha, errors),
+    chisqScaled,
+    scaling,
+    cfi: readNumberCell(input.cfi, prefix + "cfi", "unit", errors),
+    tli: readNumberCell(input.tli, prefix + "tli", "any", errors),
+    rmsea: readNumberCell(input.rmsea, prefix + "rmsea", "nonNegative", errors),
+    rmseaLo: readNumberCell(input.rmseaLo, prefix + "rmsea_lo", "nonNegative", errors),
+    rmseaHi: readNumberCell(input.rmseaHi, prefix + "rmsea_hi", "nonNegative", errors),
+    srmr: readNumberCell(input.srmr, prefix + "srmr", "nonNegative", errors),
+    aic: readNumberCell(input.aic, prefix + "aic", "any", errors),
+    bic: readNumberCell(input.bic, prefix + "bic", "any", errors),
+    loglik: readNumberCell(input.loglik, prefix + "loglik", "any", errors),
+    loglikScaling: readNumberCell(input.loglikScaling, prefix + "loglik_scaling", "positive", errors),
+    npar: readIntegerCell(input.npar, prefix + "npar", 1, errors),
+    nObserved,
+    nFixedX,
+    meanStructure: meanStructure === null ? null : meanStructure === "yes",
+    baselineChisq: readNumberCell(input.baselineChisq, prefix + "baseline_chisq", "nonNegative", errors),
+    baselineDf: readIntegerCell(input.baselineDf, prefix + "baseline_df", 1, errors),
+  };
+}
+
+export function parseSample(input: SampleInput, errors: FieldError[]): ParsedSample {
+  const n = readIntegerCell(input.n, "n", 1, errors);
+  const groups = readIntegerCell(input.groups, "n_groups", 1, errors) ?? 1;
+  if (n !== null && groups > n) errors.push({ column: "n_groups", message: `${groups} groups but N = ${n}` });
+  return { n, groups };
+}
+
+/** Alpha as printed, or the configured default; errors when outside (0, 1). */
+export function parseAlpha(text: string | undefined, fallback: number, errors: FieldError[]): number {
+  if (isBlank(text)) return fallback;
+  const printed = readPrintedNumber(text);
+  if (printed === null) {
+    errors.push({ column: "alpha", message: `"${text.trim()}" is not a number` });
+    return fallback;
+  }
+  if (!(printed.value > 0 && printed.value < 1)) {
+    errors.push({ column: "alpha", message: `alpha = ${printed.text} must lie strictly between 0 and 1` });
+    return fallback;
+  }
+  return printed.value;
+}
+
+/** Parses a whole comparison; `errors` collects every unreadable cell. */
+export function parseComparison(input: ComparisonInput, defaultAlpha: number, errors: FieldError[]): ParsedComparison {
+  const alpha = parseAlpha(input.alpha, defaultAlpha, errors);
+  const method = readChoiceCell(input.method, "method", METHODS, errors);
+  if (method === null && isBlank(input.method)) {
+    errors.push({ column: "method", message: `the comparison method is required: one of ${METHODS.join(", ")}` });
+  }
+  return {
+    label: input.label?.trim() ?? "",
+    method,
+    nested: readChoiceCell(input.nested, "nested", NESTED_VALUES, errors) ?? "unknown",
+    alpha,
+    dChisq: readNumberCell(input.dChisq, "d_chisq", "any", errors),
+    dDf: readIntegerCell(input.dDf, "d_df", null, errors),
+    dP: readPCell(input.dP, "d_p", alpha, errors),
+    dCfi: readNumberCell(input.dCfi, "d_cfi", "any", errors),
+    dRmsea: readNumberCell(input.dRmsea, "d_rmsea", "any", errors),
+    dAic: readNumberCell(input.dAic, "d_aic", "any", errors),
+    dBic: readNumberCell(input.dBic, "d_bic", "any", errors),
+    preferred: readChoiceCell(input.preferred, "preferred", PREFERRED_VALUES, errors),
+    invarianceClaimed: readChoiceCell(input.invarianceClaimed, "invariance_claimed", INVARIANCE_CLAIMS, errors, YES_NO_ALIASES),
+    sample: parseSample(input.sample ?? {}, errors),
+    restricted: parseModel(input.restricted ?? {}, "a_", alpha, errors),
+    free: parseModel(input.free ?? {}, "b_", alpha, errors),
+  };
+}
+
+/**
+ * Every unreadable cell of a comparison, each named by its sheet column, so a form can show the message
+ * beside its field. recheck() runs exactly this validation first.
+ */
+export function validateComparison(input: ComparisonInput, defaultAlpha = 0.05): FieldError[] {
+  const errors: FieldError[] = [];
+  parseComparison(input, defaultAlpha, errors);
+  return errors;
+}
+
+/** The same for a model checked on its own (columns without the a_/b_ prefix, plus n and n_groups). */
+export function validateModel(model: ModelInput, sample: SampleInput, defaultAlpha = 0.05): FieldError[] {
+  const errors: FieldError[] = [];
+  parseSample(sample ?? {}, errors);
+  parseModel(model ?? {}, "", defaultAlpha, errors);
+  return errors;
+}

@@ -1,0 +1,217 @@
+// Readers for numbers as papers print them (DESIGN §4.1). A value printed with k decimals stands for
+// the interval [x − ½·10^−k, x + ½·10^−k]; the number of printed decimals is the whole point, so the
+// text is scanned by hand (no parseFloat on the raw cell, no regular expressions in the hot path).
+
+/** A printed decimal number and the interval it stands for. */
+export interface PrintedNumber {
+  text: string;
+  value: number;
+  lo: number;
+  hi: number;
+  /** decimals after the point (negative for "1e3"-style prints, where the last digit is in the thousands) */
+  decimals: number;
+}
+
+/** How a p-value was printed: "= .032", "< .001", "> .05", "ns". */
+export type PRelation = "=" | "<" | "<=" | ">" | ">=" | "ns";
+
+/** A printed p-value and the interval of p it allows. */
+export interface PrintedP {
+  text: string;
+  relation: PRelation;
+  lo: number;
+  hi: number;
+  /** "< .05" excludes .05 itself: matters when deciding which side of alpha an interval lies on */
+  hiOpen: boolean;
+  loOpen: boolean;
+  /** the printed figure (the bound for "<" / ">"); null for "ns" */
+  value: number | null;
+  decimals: number;
+  /** printed as exactly zero (".000"): a p-value is never zero */
+  printedZero: boolean;
+}
+
+export type ReadResult<T> = { ok: true; value: T } | { ok: false; message: string };
+
+// 0.5·10^-k for the usual k, so the common case costs a table look-up instead of Math.pow.
+const HALF_UNIT = [0.5, 0.05, 0.005, 0.0005, 0.00005, 0.000005, 5e-7, 5e-8, 5e-9, 5e-10, 5e-11, 5e-12, 5e-13];
+
+const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15];
+
+function halfUnit(decimals: number): number {
+  return decimals >= 0 && decimals < HALF_UNIT.length ? HALF_UNIT[decimals] : 0.5 * Math.pow(10, -decimals);
+}
+
+function isDigit(code: number): boolean {
+  return code >= 48 && code <= 57;
+}
+
+/**
+ * Reads a printed decimal ("9.20", ".032", "-3.5", "−3.5" with a typographic minus, "2.1e-45") into its
+ * value and rounding interval. Returns null for anything else (thousands separators, decimal commas and
+ * words are rejected rather than guessed: "1,234" could be 1234 or 1.234).
+ */
+export function readPrintedNumber(raw: string): PrintedNumber | null {
+  const text = raw.trim();
+  const length = text.length;
+  let i = 0;
+  let negative = false;
+  if (i < length) {
+    const c = text.charCodeAt(i);
+    if (c === 45 /* - */ || c === 0x2212 /* − */) {
+      negative = true;
+      i++;
+    } else if (c === 43 /* + */) {
+      i++;
+    }
+  }
+  let mantissa = 0;
+  let digits = 0;
+  let decimals = 0;
+  while (i < length && isDigit(text.charCodeAt(i))) {
+    mantissa = mantissa * 10 + (text.charCodeAt(i) - 48);
+    digits++;
+    i++;
+  }
+  if (i < length && text.charCodeAt(i) === 46 /* . */) {
+    i++;
+    while (i < length && isDigit(text.charCodeAt(i))) {
+      mantissa = mantissa * 10 + (text.charCodeAt(i) - 48);
+      digits++;
+      decimals++;
+      i++;
+    }
+  }
+  if (digits === 0) return null;
+  let exponent = 0;
+  if (i < length && (text.charCodeAt(i) === 101 || text.charCodeAt(i) === 69) /* e E */) {
+    i++;
+    let expNegative = false;
+    if (i < length && (text.charCodeAt(i) === 45 || text.charCodeAt(i) === 43 || text.charCodeAt(i) === 0x2212)) {
+      expNegative = text.charCodeAt(i) !== 43;
+      i++;
+    }
+    let expDigits = 0;
+    while (i < length && isDigit(text.charCodeAt(i))) {
+      exponent = exponent * 10 + (text.charCodeAt(i) - 48);
+      expDigits++;
+      i++;
+    }
+    if (expDigits === 0) return null;
+    if (expNegative) exponent = -exponent;
+  }
+  if (i !== length) return null;
+  // For up to 15 digits and no exponent, mantissa / 10^k is one correctly rounded IEEE division, i.e.
+  // exactly what Number() returns; longer or exponent forms go through Number() itself.
+  let value: number;
+  if (digits <= 15 && exponent === 0 && decimals < POW10.length) {
+    value = mantissa / POW10[decimals];
+  } else {
+    const start = text.charCodeAt(0) === 45 || text.charCodeAt(0) === 43 || text.charCodeAt(0) === 0x2212 ? 1 : 0;
+    value = Number(text.slice(start).replace("\u2212", "-"));
+  }
+  if (negative) value = -value;
+  if (!Number.isFinite(value)) return null;
+  if (value === 0) value = 0; // no negative zero in outputs
+  const effectiveDecimals = decimals - exponent;
+  const half = halfUnit(effectiveDecimals);
+  return { text, value, lo: value - half, hi: value + half, decimals: effectiveDecimals };
+}
+
+/** Reads an exact integer count ("24", "-3"; "24.0" is accepted as 24). Null when not an integer. */
+export function readPrintedInteger(raw: string): number | null {
+  const printed = readPrintedNumber(raw);
+  if (printed === null || !Number.isInteger(printed.value)) return null;
+  return printed.value;
+}
+
+function isSpace(code: number): boolean {
+  return code === 32 || code === 9 || code === 0xa0;
+}
+
+const NS_FORMS = new Set(["ns", "n.s.", "n.s", "ns.", "n. s.", "not significant"]);
+
+/**
+ * Reads a printed p-value into the interval it allows (DESIGN §4.1): "= .032", ".032", "p = .032",
+ * "p=.032" → [.0315, .0325]; "< .001" → [0, .001]; "<.05"; "> .05" → [.05, 1]; ".000" → [0, .0005];
+ * "ns" / "n.s." → [alpha, 1]. Trailing significance stars ("< .001***") are ignored.
+ */
+export function readPrintedP(raw: string, alpha = 0.05): ReadResult<PrintedP> {
+  let text = raw.trim();
+  while (text.length > 0 && text.charCodeAt(text.length - 1) === 42 /* * */) text = text.slice(0, -1).trimEnd();
+  const lower = text.toLowerCase();
+  if (NS_FORMS.has(lower)) {
+    return {
+      ok: true,
+      value: { text, relation: "ns", lo: alpha, hi: 1, hiOpen: false, loOpen: false, value: null, decimals: 0, printedZero: false },
+    };
+  }
+  let i = 0;
+  const length = lower.length;
+  if (i < length && lower.charCodeAt(i) === 112 /* p */) {
+    i++;
+    while (i < length && isSpace(lower.charCodeAt(i))) i++;
+  }
+  let relation: PRelation = "=";
+  const c = i < length ? lower.charCodeAt(i) : 0;
+  if (c === 61 /* = */) {
+    i++;
+  } else if (c === 60 /* < */ || c === 0x2264 /* ≤ */) {
+    relation = c === 0x2264 ? "<=" : "<";
+    i++;
+    if (c === 60 && i < length && lower.charCodeAt(i) === 61) {
+      relation = "<=";
+      i++;
+    }
+  } else if (c === 62 /* > */ || c === 0x2265 /* ≥ */) {
+    relation = c === 0x2265 ? ">=" : ">";
+    i++;
+    if (c === 62 && i < length && lower.charCodeAt(i) === 61) {
+      relation = ">=";
+      i++;
+    }
+  }
+  const printed = readPrintedNumber(lower.slice(i));
+  if (printed === null) {
+    return { ok: false, message: `"${text}" is not a p-value (write e.g. .032, = .032, < .001, > .05 or ns)` };
+  }
+  if (printed.value < 0 || printed.value > 1) {
+    return { ok: false, message: `p = ${printed.text} lies outside [0, 1]` };
+  }
+  const value = printed.value;
+  let lo: number;
+  let hi: number;
+  if (relation === "=") {
+    lo = Math.max(0, printed.lo);
+    hi = Math.min(1, printed.hi);
+  } else if (relation === "<" || relation === "<=") {
+    if (value === 0) return { ok: false, message: `p ${relation} 0 is impossible: a p-value is never below zero` };
+    lo = 0;
+    hi = value;
+  } else {
+    if (value === 1 && relation === ">") return { ok: false, message: "p > 1 is impossible" };
+    lo = value;
+    hi = 1;
+  }
+  return {
+    ok: true,
+    value: {
+      text,
+      relation,
+      lo,
+      hi,
+      hiOpen: relation === "<",
+      loOpen: relation === ">",
+      value,
+      decimals: printed.decimals,
+      printedZero: relation === "=" && value === 0,
+    },
+  };
+}
+
+/** The text is empty or missing: "not reported" (DESIGN §4.1). */
+export function isBlank(text: string | undefined | null): text is undefined | null | "" {
+  if (text === undefined || text === null) return true;
+  for (let i = 0; i < text.length; i++) if (!isSpace(text.charCodeAt(i))) return false;
+  return true;
+}

@@ -1,0 +1,105 @@
+import { describe, expect, it } from "vitest";
+import { readPrintedInteger, readPrintedNumber, readPrintedP } from "@/lib/recheck";
+
+// Source for every expectation here: DESIGN §4.1 (a value printed with k decimals stands for
+// [x − ½·10^−k, x + ½·10^−k]; the p forms listed there).
+describe("readPrintedNumber", () => {
+  it("reads 9.20 as 9.2 standing for [9.195, 9.205]", () => {
+    const n = readPrintedNumber("9.20");
+    expect(n?.value).toBe(9.2);
+    expect(n?.decimals).toBe(2);
+    expect(n?.lo).toBeCloseTo(9.195, 12);
+    expect(n?.hi).toBeCloseTo(9.205, 12);
+  });
+
+  it("reads a leading-dot decimal and a typographic minus", () => {
+    expect(readPrintedNumber(".032")?.value).toBe(0.032);
+    expect(readPrintedNumber("\u22123.5")?.value).toBe(-3.5);
+    expect(readPrintedNumber("-0.010")?.lo).toBeCloseTo(-0.0105, 12);
+  });
+
+  it("gives an integer print the interval ±0.5", () => {
+    const n = readPrintedNumber("7517");
+    expect(n?.lo).toBe(7516.5);
+    expect(n?.hi).toBe(7517.5);
+  });
+
+  it("reads scientific notation with the last mantissa digit as the rounding unit", () => {
+    const n = readPrintedNumber("2.1e-45");
+    expect(n?.value).toBe(2.1e-45);
+    expect(n?.lo).toBeCloseTo(2.05e-45, 55);
+    expect(n?.hi).toBeCloseTo(2.15e-45, 55);
+  });
+
+  it("rejects thousands separators, decimal commas, words and empty text", () => {
+    for (const text of ["1,234", "0,032", "abc", "", " ", "9.2x", "--3", "."]) expect(readPrintedNumber(text)).toBeNull();
+  });
+
+  it("reads long prints exactly like Number()", () => {
+    expect(readPrintedNumber("85.3055217699727")?.value).toBe(85.3055217699727);
+    expect(readPrintedNumber("0.12345678901234567")?.value).toBe(0.12345678901234567);
+  });
+});
+
+describe("readPrintedInteger", () => {
+  it("accepts whole numbers, also printed with a zero decimal", () => {
+    expect(readPrintedInteger("24")).toBe(24);
+    expect(readPrintedInteger("-3")).toBe(-3);
+    expect(readPrintedInteger("24.0")).toBe(24);
+  });
+
+  it("rejects fractional values", () => {
+    expect(readPrintedInteger("23.47")).toBeNull();
+  });
+});
+
+describe("readPrintedP", () => {
+  const p = (text: string, alpha?: number) => {
+    const result = readPrintedP(text, alpha);
+    if (!result.ok) throw new Error(result.message);
+    return result.value;
+  };
+
+  it("reads '= .032', '.032', 'p = .032' and 'p=.032' as [.0315, .0325]", () => {
+    for (const text of ["= .032", ".032", "p = .032", "p=.032", "P = 0.032"]) {
+      const value = p(text);
+      expect(value.lo).toBeCloseTo(0.0315, 12);
+      expect(value.hi).toBeCloseTo(0.0325, 12);
+      expect(value.relation).toBe("=");
+    }
+  });
+
+  it("reads '< .001' as [0, .001] open at the top, and '<.05' likewise", () => {
+    const value = p("< .001");
+    expect([value.lo, value.hi, value.hiOpen]).toEqual([0, 0.001, true]);
+    expect(p("<.05").hi).toBe(0.05);
+    expect(p("p < .001***").hi).toBe(0.001);
+  });
+
+  it("reads '> .05' as [.05, 1]", () => {
+    const value = p("> .05");
+    expect([value.lo, value.hi, value.loOpen]).toEqual([0.05, 1, true]);
+  });
+
+  it("reads '.000' as [0, .0005] and marks it as printed zero", () => {
+    const value = p(".000");
+    expect(value.lo).toBe(0);
+    expect(value.hi).toBeCloseTo(0.0005, 15);
+    expect(value.printedZero).toBe(true);
+  });
+
+  it("reads 'ns' and 'n.s.' as [alpha, 1]", () => {
+    expect([p("ns").lo, p("ns").hi]).toEqual([0.05, 1]);
+    expect(p("n.s.", 0.01).lo).toBe(0.01);
+  });
+
+  it("reads '1.00' as [.995, 1], clipped at 1", () => {
+    const value = p("1.00");
+    expect(value.lo).toBeCloseTo(0.995, 12);
+    expect(value.hi).toBe(1);
+  });
+
+  it("rejects p outside [0, 1], p < 0 and text that is not a p-value", () => {
+    for (const text of ["1.2", "-.01", "< 0", "significant", "p"]) expect(readPrintedP(text).ok).toBe(false);
+  });
+});
