@@ -1,0 +1,44 @@
+import { afterEach, describe, expect, it } from "vitest";
+import { migrateUp, pendingMigrations } from "@/lib/db/migrate";
+import { migrations } from "@/migrations";
+import { createTestDatabase, type TestDatabase } from "../support/test-db";
+
+let database: TestDatabase | undefined;
+afterEach(async () => {
+  await database?.destroy();
+  database = undefined;
+});
+
+describe("numbered migrations", () => {
+  it("create every table of the data model on an empty SQLite file", async () => {
+    database = await createTestDatabase({ migrate: false });
+    expect(await pendingMigrations(database.sequelize)).toEqual(migrations.map((migration) => migration.name));
+    await migrateUp(database.sequelize);
+    const tables = (await database.sequelize.getQueryInterface().showAllTables()).map(String).sort();
+    expect(tables).toEqual(
+      expect.arrayContaining([
+        "audit_events", "comparisons", "fit_models", "flag_dispositions", "flags", "import_batches",
+        "outbox_messages", "papers", "samples", "saved_searches", "schema_migrations", "settings", "users",
+      ]),
+    );
+    expect(await pendingMigrations(database.sequelize)).toEqual([]);
+  });
+
+  it("apply nothing the second time", async () => {
+    database = await createTestDatabase();
+    expect(await migrateUp(database.sequelize)).toEqual([]);
+  });
+
+  it("index the columns the search facets filter on", async () => {
+    database = await createTestDatabase();
+    const queryInterface = database.sequelize.getQueryInterface();
+    const indexedColumns = async (table: string) => {
+      const indexes = (await queryInterface.showIndex(table)) as { fields: { attribute: string }[] }[];
+      return indexes.flatMap((index) => index.fields.map((field) => field.attribute));
+    };
+    expect(await indexedColumns("flags")).toEqual(expect.arrayContaining(["code", "severity", "comparison_id", "paper_id"]));
+    expect(await indexedColumns("papers")).toEqual(expect.arrayContaining(["year", "journal", "state", "field", "doi"]));
+    expect(await indexedColumns("fit_models")).toContain("estimator");
+    expect(await indexedColumns("comparisons")).toContain("method");
+  });
+});
