@@ -1,0 +1,170 @@
+// `npm run --silent recheck -- FILE.csv [--format jsonl|csv]` (DESIGN §4.5): rechecks every row of a
+// comparison sheet and writes one result per data row. The file is streamed chunk by chunk and output
+// waits for stdout to drain, so memory stays flat however long the sheet and however slow the reader.
+import { once } from "node:events";
+import { createReadStream } from "node:fs";
+import { stat } from "node:fs/promises";
+import { checkSheetRow, csvLine, isSheetError, mergeFieldErrors, readSheetBatches, toComparisonInput, type SheetRow } from "@/lib/csv";
+import { recheck } from "@/lib/recheck";
+import { oneLine } from "./one-line";
+
+const USAGE = `Usage: npm run --silent recheck -- FILE.csv [--format jsonl|csv]
+
+Rechecks every comparison in a comparison sheet (UTF-8 CSV, "," or ";") and writes one result per
+data row to standard output. Row 1 is the first row after the header.
+
+  --format jsonl   one JSON object per row (default):
+                   {"row","comparison","findings":[{"code","severity","message"}],"skipped","recomputed","engineVersion"}
+                   or, for a row with unreadable cells, {"row","comparison","errors":[{"column","message"}]}
+  --format csv     one line per finding or cell error (a "clean" line for a row with neither)
+  -h, --help       show this text
+
+Exit status: 0 when the file was read (whatever was flagged); 2 when it could not be read as a
+comparison sheet or the command line is wrong (one line on standard error).`;
+
+type Format = "jsonl" | "csv";
+type Command = { help: true } | { help: false; file: string; format: Format };
+
+/** A problem the user can fix: one line on stderr, exit status 2. */
+class CommandError extends Error {}
+
+function parseArguments(args: readonly string[]): Command {
+  let file: string | undefined;
+  let format: Format = "jsonl";
+  let optionsEnded = false;
+  for (let i = 0; i < args.length; i++) {
+    const arg = args[i];
+    if (!optionsEnded && (arg === "-h" || arg === "--help")) return { help: true };
+    if (!optionsEnded && arg === "--") {
+      optionsEnded = true;
+    } else if (!optionsEnded && (arg === "--format" || arg.startsWith("--format="))) {
+      const value = arg === "--format" ? args[++i] : arg.slice("--format=".length);
+      if (value !== "jsonl" && value !== "csv") {
+        throw new CommandError(value === undefined ? "--format needs a value: jsonl or csv" : `unknown format "${value}" (use jsonl or csv)`);
+      }
+      format = value;
+    } else if (!optionsEnded && arg.startsWith("-") && arg !== "-") {
+      throw new CommandError(`unknown option ${arg} (see --help)`);
+    } else if (file === undefined) {
+      file = arg;
+    } else {
+      throw new CommandError(`one sheet at a time: unexpected "${arg}" after "${file}"`);
+    }
+  }
+  if (file === undefined) throw new CommandError("no sheet given (usage: recheck FILE.csv [--format jsonl|csv]; see --help)");
+  return { help: false, file, format };
+}
+
+async function checkReadable(file: string): Promise<void> {
+  try {
+    const info = await stat(file);
+    if (info.isDirectory()) throw new CommandError(`${file} is a directory, not a comparison sheet`);
+  } catch (error) {
+    if (error instanceof CommandError) throw error;
+    throw new CommandError(fileProblem(file, error));
+  }
+}
+
+function fileProblem(file: string, error: unknown): string {
+  const code = (error as NodeJS.ErrnoException | undefined)?.code;
+  if (code === "ENOENT") return `cannot read ${file}: no such file`;
+  if (code === "EACCES" || code === "EPERM") return `cannot read ${file}: permission denied`;
+  if (code === "EISDIR") return `${file} is a directory, not a comparison sheet`;
+  return `cannot read ${file}: ${oneLine(error)}`;
+}
+
+/** Text collected into batches and written with backpressure: a pipe that reads slowly slows us down. */
+class Output {
+  private pending = "";
+
+  constructor(
+    private readonly stream: NodeJS.WritableStream,
+    private readonly batchChars = 1 << 16,
+  ) {}
+
+  async write(text: string): Promise<void> {
+    this.pending += text;
+    if (this.pending.length >= this.batchChars) await this.flush();
+  }
+
+  async flush(): Promise<void> {
+    if (this.pending === "") return;
+    const text = this.pending;
+    this.pending = "";
+    if (!this.stream.write(text)) await once(this.stream, "drain");
+  }
+}
+
+const CSV_HEADER = csvLine(["row", "comparison", "outcome", "code", "severity", "subject", "column", "message", "engine_version"]);
+
+/** The result lines of one row. The sheet's own checks run first; the engine validates the figures once. */
+function resultLines(row: SheetRow, format: Format): string {
+  const comparison = row.comparison.label ?? null;
+  const sheetErrors = checkSheetRow(row);
+  const outcome = row.problems.length > 0 ? null : recheck(toComparisonInput(row));
+  const errors = outcome && !outcome.ok ? mergeFieldErrors(sheetErrors, outcome.errors) : sheetErrors;
+
+  if (errors.length > 0 || !outcome?.ok) {
+    if (format === "jsonl") return JSON.stringify({ row: row.row, comparison, errors }) + "\n";
+    return errors.map((e) => csvLine([String(row.row), comparison ?? "", "error", "", "", "", e.column, e.message, ""])).join("");
+  }
+
+  const { findings, skipped, recomputed, engineVersion } = outcome.result;
+  if (format === "jsonl") {
+    const brief = findings.map((f) => ({ code: f.code, severity: f.severity, message: f.message }));
+    return JSON.stringify({ row: row.row, comparison, findings: brief, skipped, recomputed, engineVersion }) + "\n";
+  }
+  if (findings.length === 0) return csvLine([String(row.row), comparison ?? "", "clean", "", "", "", "", "", engineVersion]);
+  return findings
+    .map((f) => csvLine([String(row.row), comparison ?? "", "finding", f.code, f.severity, f.subject, "", f.message, engineVersion]))
+    .join("");
+}
+
+async function run(args: readonly string[]): Promise<number> {
+  const command = parseArguments(args);
+  if (command.help) {
+    process.stdout.write(USAGE + "\n");
+    return 0;
+  }
+  await checkReadable(command.file);
+  const output = new Output(process.stdout);
+  if (command.format === "csv") await output.write(CSV_HEADER);
+  // 1 MB chunks: fewer, larger parser passes; still one chunk and one unfinished row in memory at a time
+  const source = createReadStream(command.file, { highWaterMark: 1 << 20 });
+  try {
+    for await (const batch of readSheetBatches(source)) {
+      let text = "";
+      for (const row of batch) text += resultLines(row, command.format);
+      await output.write(text);
+    }
+  } catch (error) {
+    // rows already rechecked still go out before the refusal
+    await output.flush();
+    if (isSheetError(error)) throw new CommandError(`${command.file}: ${error.message}`);
+    if ((error as NodeJS.ErrnoException).code) throw new CommandError(fileProblem(command.file, error));
+    throw error;
+  }
+  await output.flush();
+  return 0;
+}
+
+// A reader that stops early (`| head`) closes the pipe: that is its choice, not our failure.
+process.stdout.on("error", (error: NodeJS.ErrnoException) => {
+  if (error.code === "EPIPE") process.exit(0);
+  throw error;
+});
+
+run(process.argv.slice(2)).then(
+  (status) => {
+    process.exitCode = status;
+  },
+  (error: unknown) => {
+    if (error instanceof CommandError) {
+      process.stderr.write(`recheck: ${oneLine(error)}\n`);
+      process.exitCode = 2;
+    } else {
+      process.stderr.write(`recheck failed unexpectedly: ${oneLine(error)}\n`);
+      process.exitCode = 1;
+    }
+  },
+);

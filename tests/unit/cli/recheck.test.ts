@@ -1,0 +1,169 @@
+// The recheck command line (DESIGN §4.5), run as a child process exactly as `npm run recheck` runs it.
+import { execFile } from "node:child_process";
+import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { fileURLToPath } from "node:url";
+import Papa from "papaparse";
+import { afterAll, describe, expect, it } from "vitest";
+import { ENGINE_VERSION } from "@/lib/recheck";
+
+const ROOT = fileURLToPath(new URL("../../..", import.meta.url));
+const TSX = join(ROOT, "node_modules", ".bin", "tsx");
+const SHEETS = "tests/fixtures/sheets";
+const scratch = mkdtempSync(join(tmpdir(), "fitledger-cli-"));
+afterAll(() => rmSync(scratch, { recursive: true, force: true }));
+
+interface Run {
+  status: number;
+  stdout: string;
+  stderr: string;
+}
+
+function recheckCli(...args: string[]): Promise<Run> {
+  return new Promise((resolve) => {
+    execFile(TSX, ["lib/cli/recheck.ts", ...args], { cwd: ROOT, maxBuffer: 1 << 26 }, (error, stdout, stderr) => {
+      const status = error ? Number((error as NodeJS.ErrnoException & { code?: unknown }).code) : 0;
+      resolve({ status, stdout, stderr });
+    });
+  });
+}
+
+function jsonLines(text: string): Record<string, unknown>[] {
+  return text
+    .split("\n")
+    .filter((line) => line !== "")
+    .map((line) => JSON.parse(line) as Record<string, unknown>);
+}
+
+/** A refusal: status 2, exactly one line on stderr, no stack trace. */
+function expectRefusal(run: Run, pattern: RegExp): void {
+  expect(run.status).toBe(2);
+  const lines = run.stderr.split("\n").filter((line) => line !== "");
+  expect(lines).toHaveLength(1);
+  expect(lines[0]).toMatch(pattern);
+  expect(run.stderr).not.toMatch(/\bat .*\.ts:\d+/);
+}
+
+const TIMEOUT = 30_000;
+
+describe("recheck command line: refusals", () => {
+  it("prints its usage for --help and exits 0", { timeout: TIMEOUT }, async () => {
+    const run = await recheckCli("--help");
+    expect(run.status).toBe(0);
+    expect(run.stdout).toMatch(/^Usage: npm run --silent recheck -- FILE\.csv \[--format jsonl\|csv\]/);
+  });
+
+  it("exits 2 with one line naming the file when it does not exist", { timeout: TIMEOUT }, async () => {
+    const run = await recheckCli("no-such-sheet.csv");
+    expectRefusal(run, /^recheck: cannot read no-such-sheet\.csv: no such file$/);
+    expect(run.stdout).toBe("");
+  });
+
+  it("exits 2 for a directory", { timeout: TIMEOUT }, async () => {
+    expectRefusal(await recheckCli(SHEETS), /is a directory, not a comparison sheet$/);
+  });
+
+  it("exits 2 for a missing file argument, an unknown option and an unknown format", { timeout: TIMEOUT }, async () => {
+    const [none, option, format] = await Promise.all([
+      recheckCli(),
+      recheckCli(`${SHEETS}/holzinger-swineford.csv`, "--colour"),
+      recheckCli(`${SHEETS}/holzinger-swineford.csv`, "--format", "xml"),
+    ]);
+    expectRefusal(none, /^recheck: no sheet given/);
+    expectRefusal(option, /^recheck: unknown option --colour \(see --help\)$/);
+    expectRefusal(format, /^recheck: unknown format "xml" \(use jsonl or csv\)$/);
+  });
+
+  it("exits 2 naming an unknown column and the column it was probably meant to be", { timeout: TIMEOUT }, async () => {
+    const run = await recheckCli(`${SHEETS}/unknown-column.csv`);
+    expectRefusal(run, /unknown column "a_chisqq" \(did you mean "a_chisq"\?\)$/);
+  });
+
+  it("exits 2 naming a missing required column", { timeout: TIMEOUT }, async () => {
+    expectRefusal(await recheckCli(`${SHEETS}/missing-column.csv`), /required column "method" missing from the header$/);
+  });
+
+  it("exits 2 for a binary file and for a Latin-1 file, naming the offending byte", { timeout: TIMEOUT }, async () => {
+    const binary = join(scratch, "archive.csv");
+    writeFileSync(binary, Buffer.from([0x50, 0x4b, 0x03, 0x04, 0x00, 0x00]));
+    const latin1 = join(scratch, "latin1.csv");
+    writeFileSync(latin1, Buffer.concat([Buffer.from("doi,comparison,method,a_label,b_label\n10.5555/x,Caf"), Buffer.from([0xe9]), Buffer.from(",lrt,A,B\n")]));
+    const [b, l] = await Promise.all([recheckCli(binary), recheckCli(latin1)]);
+    expectRefusal(b, /not UTF-8 text \(NUL byte at offset 4; a binary file or UTF-16\?\)$/);
+    expectRefusal(l, /not UTF-8 text \(byte 0xE9 at offset 51; Latin-1\?\)$/);
+  });
+});
+
+describe("recheck command line: results", () => {
+  it("writes one JSON line per data row with exactly the §4.5 fields, and exits 0 whatever was flagged", { timeout: TIMEOUT }, async () => {
+    const run = await recheckCli(`${SHEETS}/holzinger-swineford.csv`);
+    expect(run.stderr).toBe("");
+    expect(run.status).toBe(0);
+    const lines = jsonLines(run.stdout);
+    expect(lines.map((l) => [l.row, l.comparison])).toEqual([
+      [1, "Two vs three factors"],
+      [2, "One vs three factors"],
+      [3, "Metric vs configural"],
+    ]);
+    for (const line of lines) {
+      expect(Object.keys(line)).toEqual(["row", "comparison", "findings", "skipped", "recomputed", "engineVersion"]);
+      expect(line.engineVersion).toBe(ENGINE_VERSION);
+      for (const finding of line.findings as Record<string, unknown>[]) expect(Object.keys(finding)).toEqual(["code", "severity", "message"]);
+    }
+  });
+
+  it("flags the planted Δdf error of row 2: 27 − 24 = 3, printed as 2 (lavaan reference, hs1_vs_hs3_ML)", { timeout: TIMEOUT }, async () => {
+    const lines = jsonLines((await recheckCli(`${SHEETS}/holzinger-swineford.csv`)).stdout);
+    const codes = (line: Record<string, unknown>) => (line.findings as { code: string }[]).map((f) => f.code);
+    expect(codes(lines[1])).toContain("df-difference-mismatch");
+    expect(codes(lines[0])).not.toContain("df-difference-mismatch");
+    expect(codes(lines[2])).not.toContain("df-difference-mismatch");
+  });
+
+  it("answers a row with bad cells with its errors by column, and still rechecks the other rows", { timeout: TIMEOUT }, async () => {
+    const run = await recheckCli(`${SHEETS}/with-bad-cells.csv`);
+    expect(run.status).toBe(0);
+    const lines = jsonLines(run.stdout);
+    expect(lines).toHaveLength(3);
+    expect(Object.keys(lines[1])).toEqual(["row", "comparison", "errors"]);
+    expect(lines[1].row).toBe(2);
+    const columns = (lines[1].errors as { column: string; message: string }[]).map((e) => e.column).sort();
+    expect(columns).toEqual(["a_chisq", "a_df"]);
+    expect(lines[0]).toHaveProperty("findings");
+    expect(lines[2]).toHaveProperty("findings");
+  });
+
+  it("writes one CSV line per finding or cell error under a header with --format csv", { timeout: TIMEOUT }, async () => {
+    const run = await recheckCli(`${SHEETS}/with-bad-cells.csv`, "--format", "csv");
+    expect(run.status).toBe(0);
+    const parsed = Papa.parse<string[]>(run.stdout.trimEnd(), { newline: "\r\n" });
+    const [header, ...lines] = parsed.data;
+    expect(header).toEqual(["row", "comparison", "outcome", "code", "severity", "subject", "column", "message", "engine_version"]);
+    const errorLines = lines.filter((l) => l[2] === "error");
+    expect(errorLines.map((l) => [l[0], l[6]]).sort()).toEqual([
+      ["2", "a_chisq"],
+      ["2", "a_df"],
+    ]);
+    // rows 1 and 3 are still there, as findings or as a clean line
+    expect(new Set(lines.map((l) => l[0]))).toEqual(new Set(["1", "2", "3"]));
+    for (const line of lines.filter((l) => l[2] === "finding")) {
+      expect(line[3]).toMatch(/^[a-z]+(-[a-z]+)*$/);
+      expect(["error", "warning", "note"]).toContain(line[4]);
+      expect(line[8]).toBe(ENGINE_VERSION);
+    }
+  });
+
+  it("accepts --format=jsonl written with an equals sign", { timeout: TIMEOUT }, async () => {
+    const run = await recheckCli("--format=jsonl", `${SHEETS}/holzinger-swineford.csv`);
+    expect(run.status).toBe(0);
+    expect(jsonLines(run.stdout)).toHaveLength(3);
+  });
+
+  it("exits 0 with no output for a header-only sheet", { timeout: TIMEOUT }, async () => {
+    const file = join(scratch, "header-only.csv");
+    writeFileSync(file, "doi;comparison;method;a_label;b_label\r\n");
+    const run = await recheckCli(file);
+    expect(run).toEqual({ status: 0, stdout: "", stderr: "" });
+  });
+});
