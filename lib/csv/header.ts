@@ -12,15 +12,21 @@ export function normaliseColumnName(raw: string): string {
   return raw.trim().toLowerCase();
 }
 
-/** Levenshtein edit distance (Levenshtein 1966), two rows of the usual dynamic-programming table. */
+/**
+ * Edit distance counting an adjacent transposition as one edit ("rmsae" → "rmsea"), the commonest typo:
+ * the optimal-string-alignment variant of Damerau (1964) over Levenshtein (1966), three table rows.
+ */
 function editDistance(a: string, b: string): number {
+  let before: number[] = [];
   let previous = Array.from({ length: b.length + 1 }, (_, j) => j);
   for (let i = 1; i <= a.length; i++) {
     const current = [i];
     for (let j = 1; j <= b.length; j++) {
-      const substitution = previous[j - 1] + (a[i - 1] === b[j - 1] ? 0 : 1);
-      current.push(Math.min(previous[j] + 1, current[j - 1] + 1, substitution));
+      let best = Math.min(previous[j] + 1, current[j - 1] + 1, previous[j - 1] + (a[i - 1] === b[j - 1] ? 0 : 1));
+      if (i > 1 && j > 1 && a[i - 1] === b[j - 2] && a[i - 2] === b[j - 1]) best = Math.min(best, before[j - 2] + 1);
+      current.push(best);
     }
+    before = previous;
     previous = current;
   }
   return previous[b.length];

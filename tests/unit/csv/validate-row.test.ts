@@ -95,6 +95,8 @@ describe("column suggestions", () => {
     expect(suggestColumn("b-rmsea-lo")).toBe("b_rmsea_lo");
     expect(suggestColumn("d_chsq")).toBe("d_chisq");
     expect(suggestColumn("methd")).toBe("method");
+    // a swap of two neighbouring letters counts as one edit (Damerau 1964)
+    expect(suggestColumn("a_rmsae")).toBe("a_rmsea");
   });
 
   it("suggests nothing when no column is within a third of the name's length in edits", () => {
