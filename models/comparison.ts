@@ -5,7 +5,7 @@ import { figureAttributes, type FigureColumns, type FitModel } from "./fit-model
 import type { Paper } from "./paper";
 import type { Sample } from "./sample";
 
-// eslint-disable-next-line @typescript-eslint/no-unsafe-declaration-merging
+// eslint-disable-next-line @typescript-eslint/no-unsafe-declaration-merging, @typescript-eslint/no-empty-object-type
 export interface Comparison extends FigureColumns<ComparisonFigure> {}
 
 // eslint-disable-next-line @typescript-eslint/no-unsafe-declaration-merging

@@ -18,7 +18,7 @@ export function figureAttributes<F extends string>(figures: readonly F[]): Recor
 
 // The figure columns are declared through an interface merged with the class, so the twenty printed
 // figures are typed without being spelled out twice.
-// eslint-disable-next-line @typescript-eslint/no-unsafe-declaration-merging
+// eslint-disable-next-line @typescript-eslint/no-unsafe-declaration-merging, @typescript-eslint/no-empty-object-type
 export interface FitModel extends FigureColumns<ModelFigure> {}
 
 /** A reported fitted model ("Model" in DESIGN §3; renamed so it never shadows Sequelize's Model). */

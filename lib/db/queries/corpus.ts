@@ -1,6 +1,7 @@
 import "server-only";
 import { Op } from "sequelize";
 import { db } from "@/lib/db";
+import type { Models } from "@/models";
 
 export interface CorpusFigures {
   papers: number;
@@ -13,6 +14,11 @@ export interface CorpusFigures {
 /** The headline figures of the landing page; only verified entries count as corpus. */
 export async function readCorpusFigures(): Promise<CorpusFigures> {
   const { models } = await db();
+  return readCorpusFiguresFrom(models);
+}
+
+/** The same figures from any database handle (tests count them on the e2e database directly). */
+export async function readCorpusFiguresFrom(models: Models): Promise<CorpusFigures> {
   const verified = { model: models.Paper, as: "paper", attributes: [], where: { state: "verified" }, required: true };
   const [papers, verifiedPapers, verifiedComparisons, flaggedComparisons] = await Promise.all([
     models.Paper.count(),
@@ -20,7 +26,7 @@ export async function readCorpusFigures(): Promise<CorpusFigures> {
     models.Comparison.count({ include: [verified] }),
     models.Flag.count({
       distinct: true,
-      col: "comparisonId",
+      col: "comparison_id", // count() takes the column name, not the attribute
       where: { severity: { [Op.in]: ["error", "warning"] }, comparisonId: { [Op.ne]: null } },
       include: [verified],
     }),
