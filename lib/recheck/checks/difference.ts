@@ -1,0 +1,242 @@
+// The difference test of a comparison (DESIGN §4.3): Δdf, Δχ², its p, and for robust estimators the
+// Satorra–Bentler scaled difference. A and B are already in restricted/free order here, and every
+// printed Δ is read as restricted − free.
+import { chisqUpperTail } from "../distributions/chisq";
+import { differenceOf, meets, show, showInterval, showPInterval } from "../interval";
+import type { ParsedComparison, ParsedModel } from "../parse";
+import type { PrintedNumber, PrintedP } from "../printed";
+import type { Report } from "../report";
+import type { Interval } from "../types";
+import { conclusionChanged, isMlFamily, judgeP, upperTailInterval } from "./common";
+import { scaledStatistic } from "./derived";
+import { pText } from "./model";
+import { chisqForm, loglikForm, sbApplies, type ScaledForm } from "./scaled";
+
+const TEST_METHODS = new Set(["lrt", "scaled_lrt", "invariance"]);
+
+/** Δdf checks; returns the df of the difference test (models' df first, else the printed Δdf) or null. */
+export function checkDfDifference(c: ParsedComparison, a: ParsedModel, b: ParsedModel, report: Report): number | null {
+  const known = a.df !== null && b.df !== null && a.df >= 0 && b.df >= 0;
+  const modelDdf = known ? (a.df as number) - (b.df as number) : null;
+  if (modelDdf !== null) report.set("dDf", modelDdf);
+  if (c.dDf !== null) {
+    if (modelDdf !== null && c.dDf !== modelDdf) {
+      report.add("df-difference-mismatch", "comparison", `reported Δdf = ${c.dDf}, but ${a.df} − ${b.df} = ${modelDdf}`, {
+        reported: c.dDf,
+        recomputed: modelDdf,
+        restrictedDf: a.df as number,
+        freeDf: b.df as number,
+      });
+    } else if (modelDdf === null && c.dDf < 0) {
+      report.add("df-difference-mismatch", "comparison", `reported Δdf = ${c.dDf} is negative, but Δdf is read as restricted − free and cannot be below 0`, { reported: c.dDf });
+    } else if (modelDdf === null) {
+      report.skip("df-difference-mismatch", "comparison", "needs both models' (non-negative) df");
+    }
+  } else {
+    report.skip("df-difference-mismatch", "comparison", "no Δdf printed");
+  }
+  const testDf = modelDdf ?? c.dDf;
+  if (c.method !== null && TEST_METHODS.has(c.method) && testDf === 0) {
+    const how = modelDdf !== null ? `both models have df = ${a.df}` : "the reported Δdf is 0";
+    report.add("zero-df-difference", "comparison", `${how}: a ${c.method} comparison needs Δdf > 0, so no difference test exists`, { dDf: 0 });
+  }
+  return testDf !== null && testDf > 0 ? testDf : null;
+}
+
+/** A restricted model cannot fit better than the model it is nested in, under ML. */
+export function checkNegativeDifference(c: ParsedComparison, a: ParsedModel, b: ParsedModel, report: Report): void {
+  if (c.dChisq !== null && c.dChisq.hi < 0) {
+    report.add(
+      "negative-chisq-difference",
+      "comparison",
+      `reported Δχ² = ${c.dChisq.text} is negative; read as restricted − free, the restricted model would fit better than the model it is nested in`,
+      { reported: c.dChisq.text },
+    );
+  }
+  const nestedClaimed = c.nested === "yes" || (c.nested === "unknown" && c.method !== "ic");
+  if (!nestedClaimed || a.chisq === null || b.chisq === null) return;
+  if (!isMlFamily(a.estimator) || !isMlFamily(b.estimator)) return;
+  if (a.df !== null && b.df !== null && a.df === b.df) return;
+  if (a.chisq.hi < b.chisq.lo) {
+    report.add(
+      "negative-chisq-difference",
+      "comparison",
+      `the restricted model's χ² = ${a.chisq.text} is below the free model's χ² = ${b.chisq.text}: under ML a nested model with more constraints cannot fit better`,
+      { restrictedChisq: a.chisq.text, freeChisq: b.chisq.text },
+    );
+  }
+}
+
+/** Raises the p verdict of a difference test. */
+function reportDifferenceP(p: PrintedP, recomputed: Interval, basis: string, df: number, alpha: number, report: Report): void {
+  const verdict = judgeP(p, recomputed.lo, recomputed.hi, alpha);
+  if (verdict === "consistent") return;
+  const because = `${basis} with Δdf = ${df} gives p = ${showPInterval(recomputed.lo, recomputed.hi)}`;
+  const values = { reported: p.text, recomputed, df, alpha };
+  if (verdict === "halved" || verdict === "halved-changed") {
+    report.add("halved-p", "comparison", `reported difference-test p = ${p.text} is half the p of its test: ${because}`, values);
+  }
+  if (verdict === "changed" || verdict === "halved-changed") {
+    report.add("difference-conclusion-changed", "comparison", `reported p ${pText(p.text)}, but ${because}, on the other side of α = ${alpha}`, values);
+  } else if (verdict === "mismatch") {
+    report.add("difference-p-mismatch", "comparison", `reported p ${pText(p.text)}, but ${because}`, values);
+  }
+}
+
+export interface DifferenceContext {
+  comparison: ParsedComparison;
+  restricted: ParsedModel;
+  free: ParsedModel;
+  testDf: number | null;
+  report: Report;
+}
+
+/** Plain (normal-theory) chi-square difference test. */
+export function checkPlainDifference(ctx: DifferenceContext): void {
+  const { comparison: c, restricted: a, free: b, report } = ctx;
+  const modelDiff = a.chisq !== null && b.chisq !== null ? differenceOf(a.chisq, b.chisq) : null;
+  if (modelDiff !== null) report.set("dChisq", modelDiff);
+  if (c.dChisq !== null && modelDiff !== null) {
+    if (!meets(c.dChisq.lo, c.dChisq.hi, modelDiff.lo, modelDiff.hi)) {
+      report.add(
+        "chisq-difference-mismatch",
+        "comparison",
+        `reported Δχ² = ${c.dChisq.text}, but ${a.chisq?.text} − ${b.chisq?.text} = ${showInterval(modelDiff.lo, modelDiff.hi, 2)}`,
+        { reported: c.dChisq.text, recomputed: modelDiff },
+      );
+    }
+  } else {
+    report.skip("chisq-difference-mismatch", "comparison", c.dChisq === null ? "no Δχ² printed" : "needs both models' χ²");
+  }
+  checkPOfStatistic(ctx, modelDiff);
+}
+
+/** The difference p against the printed Δχ² when there is one (the paper's p came from it), else against `fallback`. */
+function checkPOfStatistic(ctx: DifferenceContext, fallback: Interval | null): void {
+  const { comparison: c, testDf, report } = ctx;
+  if (c.dP === null) {
+    report.skip("difference-p-mismatch", "comparison", "no difference-test p printed");
+    return;
+  }
+  const stat = c.dChisq ?? fallback;
+  if (stat === null || testDf === null) {
+    report.skip("difference-p-mismatch", "comparison", stat === null ? "no Δχ² printed or computable" : "no positive Δdf known");
+    return;
+  }
+  const p = upperTailInterval(stat, testDf);
+  report.set("dP", p);
+  const basis = c.dChisq !== null ? `Δχ² = ${c.dChisq.text}` : `Δχ² = ${showInterval(stat.lo, stat.hi, 2)} (from the models)`;
+  reportDifferenceP(c.dP, p, basis, testDf, c.alpha, report);
+}
+
+/** Scaled (robust) difference: Satorra–Bentler forms, the naive difference of scaled χ², and the p. */
+export function checkScaledDifference(ctx: DifferenceContext): void {
+  const { comparison: c, restricted: a, free: b, testDf, report } = ctx;
+  const forms: ScaledForm[] = [];
+  const negatives: string[] = [];
+  const reasons: string[] = [];
+  if (sbApplies(a) && sbApplies(b)) {
+    for (const outcome of [chisqForm(a, b), loglikForm(a, b)]) {
+      if (outcome.kind === "form") forms.push(outcome.form);
+      else if (outcome.kind === "negative") negatives.push(`${outcome.name}: cd = ${show(outcome.cdValue, 4)}`);
+      else reasons.push(`${outcome.name} ${outcome.reason}`);
+    }
+  } else {
+    reasons.push("the Satorra–Bentler 2001 difference applies to MLR/MLM; MLMV, WLSMV and ULSMV differences (e.g. DIFFTEST) need output papers do not print");
+  }
+  const key = (form: ScaledForm) => (form.name === "chi-square form" ? "sb2001" : "sb2001Loglik");
+  const formP = forms.map((form) => (testDf === null ? null : upperTailInterval(form.statistic, testDf)));
+  forms.forEach((form, i) => {
+    report.set(`${key(form)}.cd`, form.cd);
+    report.set(`${key(form)}.statistic`, form.statistic);
+    const p = formP[i];
+    if (p !== null) report.set(`${key(form)}.p`, p);
+  });
+  if (forms.length === 0 && negatives.length > 0) {
+    report.add(
+      "negative-scaling-correction",
+      "comparison",
+      `the scaling correction of the difference is not positive (${negatives.join("; ")}), so the 2001 scaled difference is undefined; the strictly positive 2010 version needs output papers rarely print`,
+      { forms: negatives.join("; ") },
+    );
+  }
+  const scaledA = scaledStatistic(a);
+  const scaledB = scaledStatistic(b);
+  const naive = scaledA !== null && scaledB !== null ? { lo: scaledA.interval.lo - scaledB.interval.hi, hi: scaledA.interval.hi - scaledB.interval.lo } : null;
+  const plain = a.chisq !== null && b.chisq !== null ? differenceOf(a.chisq, b.chisq) : null;
+  if (plain !== null) report.set("dChisq", plain);
+
+  const formsText = forms.map((form) => `${showInterval(form.statistic.lo, form.statistic.hi, 2)} (${form.name}, cd = ${show(form.cdValue, 4)})`).join(" or ");
+
+  if (c.dChisq !== null) {
+    const d = c.dChisq;
+    const matched = forms.findIndex((form) => meets(d.lo, d.hi, form.statistic.lo, form.statistic.hi));
+    if (matched >= 0) {
+      report.set("scaledFormMatched", forms[matched].name);
+    } else if (naive !== null && (a.robust || b.robust) && meets(d.lo, d.hi, naive.lo, naive.hi)) {
+      report.add(
+        "unscaled-robust-difference",
+        "comparison",
+        `reported Δχ² = ${d.text} equals the plain difference of the scaled χ² (${scaledA?.source === "printed" ? a.chisqScaled?.text : show(scaledA?.value ?? 0, 2)} − ${scaledB?.source === "printed" ? b.chisqScaled?.text : show(scaledB?.value ?? 0, 2)} = ${showInterval(naive.lo, naive.hi, 2)}), which is not chi-square distributed${forms.length > 0 ? `; the scaled difference is ${formsText}` : ""}`,
+        { reported: d.text, naiveDifference: naive, ...(forms.length > 0 ? { scaledDifference: forms[0].statistic } : {}) },
+      );
+    } else if (c.method === "lrt" && plain !== null && meets(d.lo, d.hi, plain.lo, plain.hi)) {
+      report.set("differenceBasis", "normal-theory χ² (as the method lrt says)");
+    } else if (forms.length > 0) {
+      const impliedP = c.dP ?? null;
+      const changed = testDf !== null && formP.every((p) => p !== null && changedAgainst(impliedP, d, testDf, p, c.alpha));
+      report.add(
+        "scaled-difference-mismatch",
+        "comparison",
+        `reported scaled Δχ² = ${d.text}, but the Satorra–Bentler (2001) difference is ${formsText}${changed ? `; the conclusion at α = ${c.alpha} changes` : ""}`,
+        { reported: d.text, recomputed: forms[0].statistic, cd: forms[0].cd },
+        changed ? "error" : "warning",
+      );
+    } else if (c.method === "lrt" && plain !== null) {
+      report.add("chisq-difference-mismatch", "comparison", `reported Δχ² = ${d.text}, but ${a.chisq?.text} − ${b.chisq?.text} = ${showInterval(plain.lo, plain.hi, 2)}`, {
+        reported: d.text,
+        recomputed: plain,
+      });
+    } else {
+      report.skip("scaled-difference-mismatch", "comparison", reasons.join("; ") || "no scaled difference computable");
+    }
+    // The paper's p came from its printed statistic.
+    checkPOfStatistic(ctx, null);
+    return;
+  }
+  // No printed Δχ²: the printed p against the recomputed scaled difference.
+  if (c.dP === null) {
+    report.skip("scaled-difference-mismatch", "comparison", "no scaled Δχ² or p printed");
+    return;
+  }
+  if (testDf === null) {
+    report.skip("scaled-difference-mismatch", "comparison", "no positive Δdf known");
+    return;
+  }
+  const printedP = c.dP;
+  if (forms.length === 0) {
+    if (c.method === "lrt" && plain !== null) checkPOfStatistic(ctx, plain);
+    else report.skip("scaled-difference-mismatch", "comparison", reasons.join("; ") || "no scaled difference computable");
+    return;
+  }
+  if (formP.some((p) => p !== null && meets(printedP.lo, printedP.hi, p.lo, p.hi))) return;
+  const changed = formP.every((p) => p !== null && conclusionChanged(printedP, p.lo, p.hi, c.alpha));
+  const pTextAll = forms.map((form, i) => `p = ${showPInterval(formP[i]?.lo ?? 0, formP[i]?.hi ?? 0)} (${form.name}, T = ${showInterval(form.statistic.lo, form.statistic.hi, 2)})`).join(" or ");
+  report.add(
+    "scaled-difference-mismatch",
+    "comparison",
+    `reported p ${pText(printedP.text)}, but the Satorra–Bentler (2001) difference with Δdf = ${testDf} gives ${pTextAll}${changed ? `; the conclusion at α = ${c.alpha} changes` : ""}`,
+    { reported: printedP.text, recomputed: formP[0] ?? { lo: 0, hi: 1 }, df: testDf },
+    changed ? "error" : "warning",
+  );
+}
+
+/**
+ * Conclusion of the paper (its printed p, or else the p its printed statistic implies) against the
+ * recomputed p interval: changed only when both lie entirely on opposite sides of alpha.
+ */
+function changedAgainst(printedP: PrintedP | null, printedStat: PrintedNumber, df: number, recomputed: Interval, alpha: number): boolean {
+  if (printedP !== null) return conclusionChanged(printedP, recomputed.lo, recomputed.hi, alpha);
+  const implied = { lo: chisqUpperTail(Math.max(0, printedStat.hi), df), hi: chisqUpperTail(Math.max(0, printedStat.lo), df) };
+  return (implied.hi < alpha && recomputed.lo >= alpha) || (implied.lo >= alpha && recomputed.hi < alpha);
+}

@@ -1,0 +1,95 @@
+// CFI (Bentler 1990) and TLI (Tucker & Lewis 1973) recomputed from the model's and the baseline
+// model's χ² and df, by interval arithmetic.
+import { meets, showInterval } from "../interval";
+import type { ParsedModel } from "../parse";
+import type { PrintedNumber } from "../printed";
+import type { Report } from "../report";
+import type { Interval } from "../types";
+import { modelName } from "./common";
+
+/** CFI = 1 − max(χ² − df, 0) / max(χ² − df, χ²_b − df_b, 0); 1 when the denominator is 0 (as lavaan). */
+export function cfiOf(chisq: number, df: number, baselineChisq: number, baselineDf: number): number {
+  const model = Math.max(chisq - df, 0);
+  const denominator = Math.max(chisq - df, baselineChisq - baselineDf, 0);
+  return denominator > 0 ? 1 - model / denominator : 1;
+}
+
+/** TLI = (χ²_b/df_b − χ²/df) / (χ²_b/df_b − 1), not truncated. */
+export function tliOf(chisq: number, df: number, baselineChisq: number, baselineDf: number): number {
+  const b = baselineChisq / baselineDf;
+  return (b - chisq / df) / (b - 1);
+}
+
+function cfiInterval(stat: Interval, df: number, baseline: Interval, baselineDf: number): Interval {
+  // CFI falls as χ² grows and rises as the baseline χ² grows.
+  return { lo: cfiOf(stat.hi, df, baseline.lo, baselineDf), hi: cfiOf(stat.lo, df, baseline.hi, baselineDf) };
+}
+
+/**
+ * TLI is linear in χ²/df for a fixed baseline and monotone in the baseline for a fixed model, so its
+ * extremes over the box of the two intervals lie at the corners. Null when χ²_b/df_b can reach 1.
+ */
+function tliInterval(stat: Interval, df: number, baseline: Interval, baselineDf: number): Interval | null {
+  if (baseline.lo / baselineDf <= 1) return null;
+  const corners = [
+    tliOf(stat.lo, df, baseline.lo, baselineDf),
+    tliOf(stat.lo, df, baseline.hi, baselineDf),
+    tliOf(stat.hi, df, baseline.lo, baselineDf),
+    tliOf(stat.hi, df, baseline.hi, baselineDf),
+  ];
+  return { lo: Math.min(...corners), hi: Math.max(...corners) };
+}
+
+export function checkFitIndices(m: ParsedModel, subject: "a" | "b", report: Report): void {
+  const name = modelName(subject, m.label);
+  if (m.cfi === null && m.tli === null) return;
+  if (m.baselineChisq === null || m.baselineDf === null || m.df === null || m.df <= 0) {
+    if (m.cfi !== null) report.skip("cfi-mismatch", subject, `${name}: needs the baseline χ² and df`);
+    if (m.tli !== null) report.skip("tli-mismatch", subject, `${name}: needs the baseline χ² and df`);
+    return;
+  }
+  // The printed index may come from the ML χ² or, for robust estimators, from the scaled χ² (with the
+  // baseline as printed): either reading reproduces it.
+  const stats: Array<[PrintedNumber, string]> = [];
+  if (m.chisq !== null) stats.push([m.chisq, "ML χ²"]);
+  if (m.robust && m.chisqScaled !== null) stats.push([m.chisqScaled, "scaled χ²"]);
+  if (stats.length === 0) {
+    if (m.cfi !== null) report.skip("cfi-mismatch", subject, `${name}: no χ² printed`);
+    if (m.tli !== null) report.skip("tli-mismatch", subject, `${name}: no χ² printed`);
+    return;
+  }
+  const df = m.df;
+  const baseline = m.baselineChisq;
+  const baselineDf = m.baselineDf;
+  if (m.cfi !== null) {
+    const cfi = m.cfi;
+    const candidates = stats.map(([stat]) => cfiInterval(stat, df, baseline, baselineDf));
+    report.set(`${subject}.cfi`, candidates[0]);
+    if (!candidates.some((c) => meets(cfi.lo, cfi.hi, c.lo, c.hi))) {
+      report.add(
+        "cfi-mismatch",
+        subject,
+        `${name}: reported CFI = ${cfi.text}, but χ² = ${stats[0][0].text} (df = ${df}) with baseline χ² = ${baseline.text} (df = ${baselineDf}) gives CFI = ${showInterval(candidates[0].lo, candidates[0].hi, 4)}${stats.length > 1 ? ` (${showInterval(candidates[1].lo, candidates[1].hi, 4)} from the scaled χ²)` : ""}`,
+        { reported: cfi.text, recomputed: candidates[0] },
+      );
+    }
+  }
+  if (m.tli !== null) {
+    const tli = m.tli;
+    const candidates = stats.map(([stat]) => tliInterval(stat, df, baseline, baselineDf));
+    const first = candidates[0];
+    if (first === null) {
+      report.skip("tli-mismatch", subject, `${name}: baseline χ²/df is not above 1, so TLI is undefined at this precision`);
+      return;
+    }
+    report.set(`${subject}.tli`, first);
+    if (!candidates.some((c) => c !== null && meets(tli.lo, tli.hi, c.lo, c.hi))) {
+      report.add(
+        "tli-mismatch",
+        subject,
+        `${name}: reported TLI = ${tli.text}, but χ² = ${stats[0][0].text} (df = ${df}) with baseline χ² = ${baseline.text} (df = ${baselineDf}) gives TLI = ${showInterval(first.lo, first.hi, 4)}`,
+        { reported: tli.text, recomputed: first },
+      );
+    }
+  }
+}

@@ -1,0 +1,93 @@
+// Rules on reported fit figures: both models misfitting, invariance claims against the change-in-fit
+// cutoffs, and printed ΔCFI / ΔRMSEA against the models' values. Cutoff rules fire only when the whole
+// interval of the printed figure (or of the difference of printed figures) lies beyond the cutoff.
+import { differenceOf, meets, showInterval } from "../interval";
+import type { ParsedComparison, ParsedModel } from "../parse";
+import type { PrintedNumber } from "../printed";
+import type { Report } from "../report";
+import type { Interval, RecheckSettings } from "../types";
+
+type FitVerdict = "fails" | "meets-or-unclear" | "unknown";
+
+function fitVerdict(m: ParsedModel, cutoffs: RecheckSettings["fitCutoffs"]): { verdict: FitVerdict; why: string } {
+  if (m.rmsea === null && m.cfi === null) return { verdict: "unknown", why: "" };
+  const reasons: string[] = [];
+  if (m.rmsea !== null && m.rmsea.lo > cutoffs.rmseaMax) reasons.push(`RMSEA = ${m.rmsea.text} > ${cutoffs.rmseaMax}`);
+  if (m.cfi !== null && m.cfi.hi < cutoffs.cfiMin) reasons.push(`CFI = ${m.cfi.text} < ${cutoffs.cfiMin}`);
+  return reasons.length > 0 ? { verdict: "fails", why: reasons.join(", ") } : { verdict: "meets-or-unclear", why: "" };
+}
+
+/** Neither model meets the configured cutoffs (common practice: RMSEA ≤ .08, CFI ≥ .90). */
+export function checkPoorFitBoth(a: ParsedModel, b: ParsedModel, settings: RecheckSettings, report: Report): void {
+  const va = fitVerdict(a, settings.fitCutoffs);
+  const vb = fitVerdict(b, settings.fitCutoffs);
+  if (va.verdict === "unknown" || vb.verdict === "unknown") {
+    report.skip("poor-fit-both", "comparison", "needs RMSEA or CFI for both models");
+    return;
+  }
+  if (va.verdict === "fails" && vb.verdict === "fails") {
+    report.add("poor-fit-both", "comparison", `neither model meets the fit cutoffs: restricted model ${va.why}; free model ${vb.why}`, {
+      rmseaMax: settings.fitCutoffs.rmseaMax,
+      cfiMin: settings.fitCutoffs.cfiMin,
+    });
+  }
+}
+
+/** The printed Δ, else the difference of the printed values (restricted − free). */
+function deltaOf(printed: PrintedNumber | null, a: PrintedNumber | null, b: PrintedNumber | null): { interval: Interval; text: string } | null {
+  if (printed !== null) return { interval: { lo: printed.lo, hi: printed.hi }, text: printed.text };
+  if (a !== null && b !== null) {
+    const d = differenceOf(a, b);
+    return { interval: d, text: `${a.text} − ${b.text} = ${showInterval(d.lo, d.hi, 3)}` };
+  }
+  return null;
+}
+
+/** Invariance claimed although ΔCFI ≤ −.01 (Cheung & Rensvold 2002) or ΔRMSEA ≥ .015 (Chen 2007). */
+export function checkInvarianceClaim(c: ParsedComparison, a: ParsedModel, b: ParsedModel, settings: RecheckSettings, report: Report): void {
+  if (c.invarianceClaimed !== "yes") {
+    if (c.method === "invariance") report.skip("invariance-cutoff-exceeded", "comparison", "no invariance claim recorded");
+    return;
+  }
+  const dCfi = deltaOf(c.dCfi, a.cfi, b.cfi);
+  const dRmsea = deltaOf(c.dRmsea, a.rmsea, b.rmsea);
+  if (dCfi === null && dRmsea === null) {
+    report.skip("invariance-cutoff-exceeded", "comparison", "needs ΔCFI or ΔRMSEA (or both models' CFI or RMSEA)");
+    return;
+  }
+  const { dCfi: cfiCut, dRmsea: rmseaCut } = settings.invarianceCutoffs;
+  const reasons: string[] = [];
+  if (dCfi !== null && dCfi.interval.hi <= cfiCut) reasons.push(`ΔCFI = ${dCfi.text} ≤ ${cfiCut} (Cheung & Rensvold 2002)`);
+  if (dRmsea !== null && dRmsea.interval.lo >= rmseaCut) reasons.push(`ΔRMSEA = ${dRmsea.text} ≥ ${rmseaCut} (Chen 2007)`);
+  if (reasons.length > 0) {
+    report.add("invariance-cutoff-exceeded", "comparison", `invariance is claimed although ${reasons.join(" and ")}`, {
+      ...(dCfi ? { dCfi: dCfi.interval } : {}),
+      ...(dRmsea ? { dRmsea: dRmsea.interval } : {}),
+      cfiCutoff: cfiCut,
+      rmseaCutoff: rmseaCut,
+    });
+  }
+}
+
+/** Printed ΔCFI / ΔRMSEA against the difference of the printed values (restricted − free). */
+export function checkDeltaFit(c: ParsedComparison, a: ParsedModel, b: ParsedModel, report: Report): void {
+  const pairs: Array<[string, PrintedNumber | null, PrintedNumber | null, PrintedNumber | null]> = [
+    ["CFI", c.dCfi, a.cfi, b.cfi],
+    ["RMSEA", c.dRmsea, a.rmsea, b.rmsea],
+  ];
+  for (const [label, printed, pa, pb] of pairs) {
+    if (printed === null) continue;
+    if (pa === null || pb === null) {
+      report.skip("delta-fit-mismatch", "comparison", `Δ${label} needs both models' ${label}`);
+      continue;
+    }
+    const d = differenceOf(pa, pb);
+    if (!meets(printed.lo, printed.hi, d.lo, d.hi)) {
+      report.add("delta-fit-mismatch", "comparison", `reported Δ${label} = ${printed.text}, but ${pa.text} − ${pb.text} = ${showInterval(d.lo, d.hi, 3)} (restricted − free)`, {
+        reported: printed.text,
+        recomputed: d,
+        index: label,
+      });
+    }
+  }
+}

@@ -1,0 +1,209 @@
+// A model's own checks (DESIGN §4.3): identification, its χ² p, RMSEA and CI, CFI/TLI, the df recount
+// and AIC/BIC from the log-likelihood. Used for both models of a comparison and for lone models.
+import { showPInterval } from "../interval";
+import type { ParsedModel, ParsedSample } from "../parse";
+import type { Report } from "../report";
+import { asInterval, judgeP, modelName, upperTailInterval } from "./common";
+import { checkModelCriteria } from "./criteria";
+import { scaledStatistic, scalingFactor } from "./derived";
+import { checkFitIndices } from "./fit-indices";
+import {
+  describeInterval,
+  describePoint,
+  matchRmseaInterval,
+  matchRmseaPoint,
+  recomputeRmseaInterval,
+  rmseaConventions,
+} from "./rmsea";
+
+export interface ModelCheckContext {
+  model: ParsedModel;
+  subject: "a" | "b";
+  sample: ParsedSample;
+  alpha: number;
+  report: Report;
+  /** a model of a comparison (df = 0 is then an error) or a model checked on its own (a note) */
+  inComparison: boolean;
+}
+
+/** Runs every model-level check; returns whether the model's df can be used by other checks. */
+export function checkModel(ctx: ModelCheckContext): boolean {
+  const { model: m, subject, report } = ctx;
+  const name = modelName(subject, m.label);
+  if (m.p !== null && m.p.printedZero) {
+    report.add("p-printed-as-zero", subject, `${name}: p printed as ${m.p.text}; a p-value is never zero (report p < .001)`, { reported: m.p.text });
+  }
+  checkModelCriteria(m, subject, ctx.sample.n, report);
+  checkDfRecount(ctx);
+
+  if (m.df === null) {
+    for (const check of DF_CHECKS) report.skip(check, subject, `${name}: df not reported`);
+    return false;
+  }
+  if (m.df < 0) {
+    report.add("negative-df", subject, `${name} has df = ${m.df}: fewer data moments than free parameters, so it is not identified`, { df: m.df });
+    for (const check of DF_CHECKS) report.skip(check, subject, `${name}: negative df`);
+    return false;
+  }
+  if (m.df === 0) {
+    const message = ctx.inComparison
+      ? `${name} has df = 0: it is just-identified and reproduces the data exactly, so the comparison reduces to the other model's own fit test`
+      : `${name} has df = 0: it is just-identified, so its fit cannot be tested`;
+    report.add("just-identified-model", subject, message, { df: 0 }, ctx.inComparison ? "error" : "note");
+    for (const check of DF_CHECKS) report.skip(check, subject, `${name}: df = 0, no fit test exists`);
+    return true;
+  }
+  checkModelP(ctx, m.df);
+  checkRmsea(ctx, m.df);
+  checkFitIndices(m, subject, report);
+  return true;
+}
+
+const DF_CHECKS = ["model-p-mismatch", "rmsea-mismatch", "rmsea-interval-mismatch", "cfi-mismatch", "tli-mismatch"];
+
+function checkModelP(ctx: ModelCheckContext, df: number): void {
+  const { model: m, subject, report, alpha } = ctx;
+  const name = modelName(subject, m.label);
+  // DESIGN §5: the printed p belongs to the scaled χ² when the estimator is robust and one is printed.
+  const useScaled = m.robust && m.chisqScaled !== null;
+  const stat = useScaled ? m.chisqScaled : m.chisq;
+  if (stat === null) {
+    report.skip("model-p-mismatch", subject, `${name}: no χ² printed`);
+    return;
+  }
+  const p = upperTailInterval(stat, df);
+  report.set(`${subject}.p`, p);
+  if (m.p === null) {
+    report.skip("model-p-mismatch", subject, `${name}: no p printed`);
+    return;
+  }
+  const verdict = judgeP(m.p, p.lo, p.hi, alpha);
+  if (verdict === "consistent") return;
+  const statName = useScaled ? "scaled χ²" : "χ²";
+  const values = { reported: m.p.text, recomputed: p, statistic: stat.text, df, alpha };
+  const because = `${statName}(${df}) = ${stat.text} gives p = ${showPInterval(p.lo, p.hi)}`;
+  if (verdict === "halved" || verdict === "halved-changed") {
+    report.add("halved-p", subject, `${name}: reported p = ${m.p.text} is half the p of its test: ${because}`, values);
+  }
+  if (verdict === "changed" || verdict === "halved-changed") {
+    report.add("model-conclusion-changed", subject, `${name}: reported p ${pText(m.p.text)}, but ${because}, on the other side of α = ${alpha}`, values);
+  } else if (verdict === "mismatch") {
+    report.add("model-p-mismatch", subject, `${name}: reported p ${pText(m.p.text)}, but ${because}`, values);
+  }
+}
+
+/** "= .032" stays, ".032" becomes "= .032", so messages read naturally. */
+export function pText(text: string): string {
+  const c = text.charAt(0);
+  return c === "<" || c === ">" || c === "=" || c === "≤" || c === "≥" ? text : c === "p" || c === "P" ? text.slice(1).trim() : `= ${text}`;
+}
+
+function checkRmsea(ctx: ModelCheckContext, df: number): void {
+  const { model: m, subject, report, sample } = ctx;
+  const name = modelName(subject, m.label);
+  if (m.rmsea === null && m.rmseaLo === null && m.rmseaHi === null) {
+    report.skip("rmsea-mismatch", subject, `${name}: no RMSEA printed`);
+    return;
+  }
+  if (sample.n === null) {
+    report.skip("rmsea-mismatch", subject, `${name}: N not reported`);
+    return;
+  }
+  const scaled = scaledStatistic(m);
+  const scaling = scalingFactor(m);
+  const conventions = rmseaConventions({
+    n: sample.n,
+    groups: sample.groups,
+    df,
+    chisq: m.chisq === null ? null : asInterval(m.chisq),
+    scaled: scaled?.interval ?? null,
+    scaling: scaling?.interval ?? null,
+    robust: m.robust,
+    chisqValue: m.chisq?.value ?? null,
+    scaledValue: scaled?.value ?? null,
+    scalingValue: scaling?.value ?? null,
+  });
+  if (conventions.length === 0) {
+    report.skip("rmsea-mismatch", subject, `${name}: no χ² printed to recompute the RMSEA from`);
+    return;
+  }
+  let matched = -1;
+  if (m.rmsea !== null) {
+    matched = matchRmseaPoint(m.rmsea, conventions);
+    if (matched >= 0) {
+      report.set(`${subject}.rmsea`, conventions[matched].point);
+      report.set(`${subject}.rmseaConvention`, conventions[matched].name);
+    } else {
+      const tried = conventions.map((c) => c.name).join("; ");
+      report.set(`${subject}.rmsea`, conventions[0].point);
+      report.add(
+        "rmsea-mismatch",
+        subject,
+        `${name}: reported RMSEA = ${m.rmsea.text}, but the printed χ², df = ${df} and N = ${sample.n} give ${describePoint(conventions[0])}; no convention reproduces it (tried: ${tried})`,
+        { reported: m.rmsea.text, recomputed: conventions[0].point, df, n: sample.n, groups: sample.groups, conventionsTried: tried },
+      );
+    }
+  } else {
+    report.skip("rmsea-mismatch", subject, `${name}: no RMSEA point estimate printed`);
+  }
+  if (m.rmseaLo === null && m.rmseaHi === null) {
+    report.skip("rmsea-interval-mismatch", subject, `${name}: no RMSEA interval printed`);
+    return;
+  }
+  const intervalMatch = matchRmseaInterval(m.rmseaLo, m.rmseaHi, conventions, matched);
+  if (intervalMatch >= 0) {
+    report.set(`${subject}.rmseaIntervalConvention`, conventions[intervalMatch].name);
+    return;
+  }
+  const primary = conventions[matched >= 0 ? matched : 0];
+  const recomputed = recomputeRmseaInterval(primary);
+  report.set(`${subject}.rmseaInterval`, recomputed);
+  const printed = `[${m.rmseaLo?.text ?? "–"}, ${m.rmseaHi?.text ?? "–"}]`;
+  report.add(
+    "rmsea-interval-mismatch",
+    subject,
+    `${name}: reported 90 % RMSEA interval ${printed}, but inverting the noncentral χ² gives ${describeInterval(recomputed, primary)}; no convention reproduces it (tried ${conventions.length})`,
+    { reportedLower: m.rmseaLo?.text ?? null, reportedUpper: m.rmseaHi?.text ?? null, recomputed, df, n: sample.n, groups: sample.groups },
+  );
+}
+
+/**
+ * df = G·(p(p+1)/2 + [mean structure]·p) − q, less the k(k+1)/2 (+ k) moments of fixed-x covariates,
+ * which are neither moments nor parameters (DESIGN §4.3; e.g. SAS/STAT PROC CALIS documentation).
+ * Without a printed mean structure both readings are tried: free intercepts add p moments and p
+ * parameters alike, but constrained ones do not.
+ */
+function checkDfRecount(ctx: ModelCheckContext): void {
+  const { model: m, subject, report, sample } = ctx;
+  const name = modelName(subject, m.label);
+  if (m.df === null || m.npar === null || m.nObserved === null) {
+    report.skip("df-recount-mismatch", subject, `${name}: needs df, npar and n_observed`);
+    return;
+  }
+  const p = m.nObserved;
+  const k = m.nFixedX ?? 0;
+  const g = sample.groups;
+  const readings = m.meanStructure === null ? [false, true] : [m.meanStructure];
+  const recounts: number[] = [];
+  for (const means of readings) {
+    const moments = g * (p * (p + 1) / 2 + (means ? p : 0)) - g * (k * (k + 1) / 2 + (means ? k : 0));
+    const df = moments - m.npar;
+    recounts.push(df);
+    if (df === m.df) {
+      report.set(`${subject}.dfRecount`, df);
+      return;
+    }
+  }
+  report.set(`${subject}.dfRecount`, recounts[0]);
+  const how = readings
+    .map((means, i) => `${g > 1 ? `${g}·` : ""}(${p}·${p + 1}/2${means ? ` + ${p}` : ""})${k > 0 ? ` − fixed-x moments` : ""} − ${m.npar} = ${recounts[i]}${m.meanStructure === null ? (means ? " with means" : " without means") : ""}`)
+    .join("; ");
+  report.add("df-recount-mismatch", subject, `${name}: reported df = ${m.df}, but moments minus free parameters give ${how}`, {
+    reported: m.df,
+    recomputed: recounts[0],
+    nObserved: p,
+    npar: m.npar,
+    groups: g,
+    nFixedX: k,
+  });
+}

@@ -1,0 +1,189 @@
+// RMSEA and its 90 % confidence interval under every common convention.
+//
+// Point estimate: √(max(0, (χ² − df) / (df · N))) (Steiger & Lind 1980), with N or N − 1 (the Wishart
+// likelihood of LISREL/EQS; N − G per group in lavaan), times √G for several groups (Steiger 1998) or
+// not. For robust estimators also from the scaled χ² ("naive" scaled RMSEA), and the robust RMSEA of
+// Brosseau-Liard, Savalei & Li (2012): √(max(0, (χ² − c·df)/(N·df))).
+// Interval: invert the noncentral χ² (Browne & Cudeck 1993): the lower bound's λ solves F(χ²; df, λ) =
+// .95 (0 if F(χ²; df, 0) < .95), the upper bound's F = .05, and a bound is √(λ / (N·df)) (·√G).
+//
+// Checking a printed bound needs no root finding: F falls in λ and rises in χ², so the printed bound's
+// interval meets the recomputed one iff the CDF condition changes sign across it (two CDF evaluations).
+// Roots are only found, lazily, to report the recomputed interval when nothing matched.
+import { noncentralChisqCdf, noncentralityForCdf } from "../distributions/noncentral";
+import { meets, show, showInterval } from "../interval";
+import type { PrintedNumber } from "../printed";
+import type { Interval } from "../types";
+
+/** One corner of the outer enclosure for the CI check: statistic x, its df, and λ = bound² · k. */
+interface Corner {
+  x: number;
+  df: number;
+  k: number;
+}
+
+export interface RmseaConvention {
+  name: string;
+  point: Interval;
+  /** corner giving the largest bound (largest χ², its df and scale) */
+  high: Corner;
+  /** corner giving the smallest bound */
+  low: Corner;
+  /** the central value, for reporting a recomputed interval */
+  mid: Corner;
+}
+
+export interface RmseaInputs {
+  n: number;
+  groups: number;
+  df: number;
+  chisq: Interval | null;
+  /** scaled χ², printed or χ²/c */
+  scaled: Interval | null;
+  /** χ² scaling correction factor, printed or χ²/χ²_scaled */
+  scaling: Interval | null;
+  robust: boolean;
+  chisqValue: number | null;
+  scaledValue: number | null;
+  scalingValue: number | null;
+}
+
+function rmseaOf(stat: number, df: number, n: number, gFactor: number): number {
+  const excess = stat - df;
+  return excess > 0 ? Math.sqrt(excess / (df * n)) * gFactor : 0;
+}
+
+/** The conventions to try, most likely first (scaled ones first for robust estimators). */
+export function rmseaConventions(inputs: RmseaInputs): RmseaConvention[] {
+  const { n, groups, df, chisq, scaled, scaling } = inputs;
+  const sizes: Array<[number, string]> = [[n, "N"]];
+  if (groups > 1) sizes.push([n - groups, "N − G"]);
+  if (n - 1 > 0) sizes.push([n - 1, "N − 1"]);
+  const gFactors: Array<[number, string]> = groups > 1 ? [[Math.sqrt(groups), ", ×√G"], [1, ", without √G"]] : [[1, ""]];
+  const conventions: RmseaConvention[] = [];
+
+  const addPlain = (stat: Interval, mid: number, statName: string) => {
+    for (const [size, sizeName] of sizes) {
+      if (!(size > 0)) continue;
+      for (const [g, gName] of gFactors) {
+        const k = (size * df) / (g * g);
+        conventions.push({
+          name: `${statName}, ${sizeName}${gName}`,
+          point: { lo: rmseaOf(stat.lo, df, size, g), hi: rmseaOf(stat.hi, df, size, g) },
+          high: { x: stat.hi, df, k },
+          low: { x: stat.lo, df, k },
+          mid: { x: mid, df, k },
+        });
+      }
+    }
+  };
+
+  const addRobustVariants = () => {
+    if (scaled !== null) addPlain(scaled, inputs.scaledValue ?? (scaled.lo + scaled.hi) / 2, "scaled χ²");
+    if (chisq !== null && scaling !== null) {
+      // lavaan's scaled interval: ML χ² against a noncentral χ² with c·df degrees of freedom, bound
+      // √(λ/(N·c·df)); its point estimate equals the naive scaled one.
+      const cMid = inputs.scalingValue ?? (scaling.lo + scaling.hi) / 2;
+      for (const [size, sizeName] of sizes) {
+        if (!(size > 0)) continue;
+        for (const [g, gName] of gFactors) {
+          const point = (x: number, c: number) => rmseaOf(x / c, df, size, g);
+          conventions.push({
+            name: `ML χ² with c·df, ${sizeName}${gName}`,
+            point: { lo: point(chisq.lo, scaling.hi), hi: point(chisq.hi, scaling.lo) },
+            high: { x: chisq.hi, df: scaling.lo * df, k: (size * scaling.lo * df) / (g * g) },
+            low: { x: chisq.lo, df: scaling.hi * df, k: (size * scaling.hi * df) / (g * g) },
+            mid: { x: inputs.chisqValue ?? chisq.lo, df: cMid * df, k: (size * cMid * df) / (g * g) },
+          });
+        }
+      }
+    }
+    if (scaled !== null && scaling !== null && chisq !== null) {
+      // Robust RMSEA (Brosseau-Liard, Savalei & Li 2012); its interval comes from the scaled χ² and is
+      // scaled back by c: bound = √(c·λ/(N·df)), so λ = bound² · N·df / c. Each input is taken at the
+      // end that widens the result: an outer enclosure, since c and the scaled χ² are not independent.
+      const cMid = inputs.scalingValue ?? (scaling.lo + scaling.hi) / 2;
+      for (const [size, sizeName] of sizes) {
+        if (!(size > 0)) continue;
+        for (const [g, gName] of gFactors) {
+          const point = (x: number, c: number) => {
+            const excess = x - c * df;
+            return excess > 0 ? Math.sqrt(excess / (df * size)) * g : 0;
+          };
+          conventions.push({
+            name: `robust (Brosseau-Liard et al. 2012), ${sizeName}${gName}`,
+            point: { lo: point(chisq.lo, scaling.hi), hi: point(chisq.hi, scaling.lo) },
+            high: { x: scaled.hi, df, k: (size * df) / (g * g * scaling.hi) },
+            low: { x: scaled.lo, df, k: (size * df) / (g * g * scaling.lo) },
+            mid: { x: inputs.scaledValue ?? scaled.lo, df, k: (size * df) / (g * g * cMid) },
+          });
+        }
+      }
+    }
+  };
+
+  if (inputs.robust && (scaled !== null || scaling !== null)) {
+    addRobustVariants();
+    if (chisq !== null) addPlain(chisq, inputs.chisqValue ?? chisq.lo, "ML χ²");
+  } else if (chisq !== null) {
+    addPlain(chisq, inputs.chisqValue ?? chisq.lo, "ML χ²");
+    if (inputs.robust) addRobustVariants();
+  }
+  return conventions;
+}
+
+/** Index of the first convention whose point interval meets the printed RMSEA, or −1. */
+export function matchRmseaPoint(printed: PrintedNumber, conventions: RmseaConvention[]): number {
+  for (let i = 0; i < conventions.length; i++) {
+    const point = conventions[i].point;
+    if (meets(printed.lo, printed.hi, point.lo, point.hi)) return i;
+  }
+  return -1;
+}
+
+const SLACK = 1e-12;
+
+/**
+ * Does a printed CI bound (interval [lo, hi] in RMSEA units) meet the bound recomputed at level
+ * `target` (.95 for the lower bound, .05 for the upper)? Sign test at the two corners (see file comment).
+ */
+function boundMeets(printed: PrintedNumber, target: number, convention: RmseaConvention): boolean {
+  const { high, low } = convention;
+  // printed.lo ≤ recomputed maximum  ⇔  F(x_high; df, λ(printed.lo)) ≥ target (or λ = 0)
+  const lambdaLo = printed.lo > 0 ? printed.lo * printed.lo * high.k : 0;
+  if (lambdaLo > 0 && (!(high.x > 0) || noncentralChisqCdf(high.x, high.df, lambdaLo) < target - SLACK)) return false;
+  // printed.hi ≥ recomputed minimum  ⇔  F(x_low; df, λ(printed.hi)) ≤ target
+  const lambdaHi = printed.hi * printed.hi * low.k;
+  if (low.x <= 0) return true; // χ² interval reaches 0: the recomputed bound can be 0
+  return noncentralChisqCdf(low.x, low.df, lambdaHi) <= target + SLACK;
+}
+
+/** First convention (trying `first` before the rest) under which every printed bound is reproduced. */
+export function matchRmseaInterval(
+  lower: PrintedNumber | null,
+  upper: PrintedNumber | null,
+  conventions: RmseaConvention[],
+  first: number,
+): number {
+  const tryOne = (i: number) =>
+    (lower === null || boundMeets(lower, 0.95, conventions[i])) && (upper === null || boundMeets(upper, 0.05, conventions[i]));
+  if (first >= 0 && tryOne(first)) return first;
+  for (let i = 0; i < conventions.length; i++) if (i !== first && tryOne(i)) return i;
+  return -1;
+}
+
+/** The recomputed 90 % interval at the convention's central values (root finding: only on mismatch). */
+export function recomputeRmseaInterval(convention: RmseaConvention): Interval {
+  const { x, df, k } = convention.mid;
+  const lower = noncentralityForCdf(x, df, 0.95);
+  const upper = noncentralityForCdf(x, df, 0.05);
+  return { lo: Math.sqrt(lower / k), hi: Math.sqrt(upper / k) };
+}
+
+export function describePoint(convention: RmseaConvention): string {
+  return `${showInterval(convention.point.lo, convention.point.hi, 4)} (${convention.name})`;
+}
+
+export function describeInterval(bounds: Interval, convention: RmseaConvention): string {
+  return `[${show(bounds.lo, 4)}, ${show(bounds.hi, 4)}] (${convention.name})`;
+}
