@@ -8,7 +8,6 @@ import type { PrintedNumber, PrintedP } from "../printed";
 import type { Report } from "../report";
 import type { Interval } from "../types";
 import { conclusionChanged, isMlFamily, judgeP, upperTailInterval } from "./common";
-import { scaledStatistic } from "./derived";
 import { pText } from "./model";
 import { chisqForm, loglikForm, sbApplies, type ScaledForm } from "./scaled";
 
@@ -160,9 +159,9 @@ export function checkScaledDifference(ctx: DifferenceContext): void {
       { forms: negatives.join("; ") },
     );
   }
-  const scaledA = scaledStatistic(a);
-  const scaledB = scaledStatistic(b);
-  const naive = scaledA !== null && scaledB !== null ? { lo: scaledA.interval.lo - scaledB.interval.hi, hi: scaledA.interval.hi - scaledB.interval.lo } : null;
+  // The naive difference of the *printed* scaled statistics: what a paper subtracting them would get
+  // (a derived χ²/c is too wide at printed precision to show that anyone subtracted it).
+  const naive = a.chisqScaled !== null && b.chisqScaled !== null ? differenceOf(a.chisqScaled, b.chisqScaled) : null;
   const plain = a.chisq !== null && b.chisq !== null ? differenceOf(a.chisq, b.chisq) : null;
   if (plain !== null) report.set("dChisq", plain);
 
@@ -177,7 +176,7 @@ export function checkScaledDifference(ctx: DifferenceContext): void {
       report.add(
         "unscaled-robust-difference",
         "comparison",
-        `reported Δχ² = ${d.text} equals the plain difference of the scaled χ² (${scaledA?.source === "printed" ? a.chisqScaled?.text : show(scaledA?.value ?? 0, 2)} − ${scaledB?.source === "printed" ? b.chisqScaled?.text : show(scaledB?.value ?? 0, 2)} = ${showInterval(naive.lo, naive.hi, 2)}), which is not chi-square distributed${forms.length > 0 ? `; the scaled difference is ${formsText}` : ""}`,
+        `reported Δχ² = ${d.text} equals the plain difference of the scaled χ² (${a.chisqScaled?.text} − ${b.chisqScaled?.text} = ${showInterval(naive.lo, naive.hi, 2)}), which is not chi-square distributed${forms.length > 0 ? `; the scaled difference is ${formsText}` : ""}`,
         { reported: d.text, naiveDifference: naive, ...(forms.length > 0 ? { scaledDifference: forms[0].statistic } : {}) },
       );
     } else if (c.method === "lrt" && plain !== null && meets(d.lo, d.hi, plain.lo, plain.hi)) {

@@ -2,10 +2,10 @@
 // model's χ² and df, by interval arithmetic.
 import { meets, showInterval } from "../interval";
 import type { ParsedModel } from "../parse";
-import type { PrintedNumber } from "../printed";
 import type { Report } from "../report";
 import type { Interval } from "../types";
 import { modelName } from "./common";
+import { scaledStatistic } from "./derived";
 
 /** CFI = 1 − max(χ² − df, 0) / max(χ² − df, χ²_b − df_b, 0); 1 when the denominator is 0 (as lavaan). */
 export function cfiOf(chisq: number, df: number, baselineChisq: number, baselineDf: number): number {
@@ -50,9 +50,10 @@ export function checkFitIndices(m: ParsedModel, subject: "a" | "b", report: Repo
   }
   // The printed index may come from the ML χ² or, for robust estimators, from the scaled χ² (with the
   // baseline as printed): either reading reproduces it.
-  const stats: Array<[PrintedNumber, string]> = [];
-  if (m.chisq !== null) stats.push([m.chisq, "ML χ²"]);
-  if (m.robust && m.chisqScaled !== null) stats.push([m.chisqScaled, "scaled χ²"]);
+  const stats: Array<[Interval, string]> = [];
+  if (m.chisq !== null) stats.push([m.chisq, m.chisq.text]);
+  const scaled = m.robust ? scaledStatistic(m) : null;
+  if (scaled !== null) stats.push([scaled.interval, scaled.source === "printed" ? (m.chisqScaled?.text ?? "") : showInterval(scaled.interval.lo, scaled.interval.hi, 2)]);
   if (stats.length === 0) {
     if (m.cfi !== null) report.skip("cfi-mismatch", subject, `${name}: no χ² printed`);
     if (m.tli !== null) report.skip("tli-mismatch", subject, `${name}: no χ² printed`);
@@ -69,7 +70,7 @@ export function checkFitIndices(m: ParsedModel, subject: "a" | "b", report: Repo
       report.add(
         "cfi-mismatch",
         subject,
-        `${name}: reported CFI = ${cfi.text}, but χ² = ${stats[0][0].text} (df = ${df}) with baseline χ² = ${baseline.text} (df = ${baselineDf}) gives CFI = ${showInterval(candidates[0].lo, candidates[0].hi, 4)}${stats.length > 1 ? ` (${showInterval(candidates[1].lo, candidates[1].hi, 4)} from the scaled χ²)` : ""}`,
+        `${name}: reported CFI = ${cfi.text}, but χ² = ${stats[0][1]} (df = ${df}) with baseline χ² = ${baseline.text} (df = ${baselineDf}) gives CFI = ${showInterval(candidates[0].lo, candidates[0].hi, 4)}${stats.length > 1 ? ` (${showInterval(candidates[1].lo, candidates[1].hi, 4)} from the scaled χ²)` : ""}`,
         { reported: cfi.text, recomputed: candidates[0] },
       );
     }
@@ -87,7 +88,7 @@ export function checkFitIndices(m: ParsedModel, subject: "a" | "b", report: Repo
       report.add(
         "tli-mismatch",
         subject,
-        `${name}: reported TLI = ${tli.text}, but χ² = ${stats[0][0].text} (df = ${df}) with baseline χ² = ${baseline.text} (df = ${baselineDf}) gives TLI = ${showInterval(first.lo, first.hi, 4)}`,
+        `${name}: reported TLI = ${tli.text}, but χ² = ${stats[0][1]} (df = ${df}) with baseline χ² = ${baseline.text} (df = ${baselineDf}) gives TLI = ${showInterval(first.lo, first.hi, 4)}`,
         { reported: tli.text, recomputed: first },
       );
     }

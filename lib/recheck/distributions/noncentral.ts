@@ -7,7 +7,7 @@
 // thousands of terms. Absolute error ~1e-14, ample for locating .05 / .95 points.
 import { gammaPrefactor, regularizedGammaP } from "./gamma";
 
-const TAIL = 1e-15;
+const TAIL = 1e-14;
 const MAX_TERMS = 100_000;
 
 /** P(X ≤ x) for X ~ χ²(df, ncp = lambda), df > 0, lambda ≥ 0 (R's pchisq(x, df, ncp)). */
@@ -37,8 +37,8 @@ export function noncentralChisqCdf(x: number, df: number, lambda: number): numbe
     term *= y / (a + j + 1);
     weight *= mu / (j + 1);
     sum += weight * p;
-    const ratio = mu / (j + 2);
-    if (ratio < 1 && (weight * p * ratio) / (1 - ratio) < TAIL) break;
+    // Remainder ≤ w·P·r/(1 − r) with r = μ/(j + 2) < 1, written without divisions.
+    if (j + 2 > mu && weight * p * mu < TAIL * (j + 2 - mu)) break;
     if (weight === 0 || p === 0) break;
   }
 
@@ -52,8 +52,8 @@ export function noncentralChisqCdf(x: number, df: number, lambda: number): numbe
     if (p > 1) p = 1;
     weight *= (j + 1) / mu;
     sum += weight * p;
-    const ratio = j / mu;
-    if (ratio < 1 && (weight * ratio) / (1 - ratio) < TAIL) break;
+    // Remainder ≤ w·r/(1 − r) with r = j/μ < 1.
+    if (weight * j < TAIL * (mu - j)) break;
     if (weight === 0) break;
   }
   return sum > 1 ? 1 : sum;
