@@ -28,6 +28,9 @@ type Command = { help: true } | { help: false; file: string; format: Format };
 /** A problem the user can fix: one line on stderr, exit status 2. */
 class CommandError extends Error {}
 
+/** Standard output failed (not the sheet): one line on stderr, exit status 1. */
+class OutputError extends Error {}
+
 function parseArguments(args: readonly string[]): Command {
   let file: string | undefined;
   let format: Format = "jsonl";
@@ -91,7 +94,11 @@ class Output {
     if (this.pending === "") return;
     const text = this.pending;
     this.pending = "";
-    if (!this.stream.write(text)) await once(this.stream, "drain");
+    try {
+      if (!this.stream.write(text)) await once(this.stream, "drain");
+    } catch (error) {
+      throw new OutputError(`cannot write the results: ${oneLine(error)}`);
+    }
   }
 }
 
@@ -139,6 +146,7 @@ async function run(args: readonly string[]): Promise<number> {
       await output.write(text);
     }
   } catch (error) {
+    if (error instanceof OutputError) throw error;
     // rows already rechecked still go out before the refusal
     await output.flush();
     if (isSheetError(error)) throw new CommandError(`${command.file}: ${error.message}`);
@@ -152,7 +160,8 @@ async function run(args: readonly string[]): Promise<number> {
 // A reader that stops early (`| head`) closes the pipe: that is its choice, not our failure.
 process.stdout.on("error", (error: NodeJS.ErrnoException) => {
   if (error.code === "EPIPE") process.exit(0);
-  throw error;
+  process.stderr.write(`recheck: cannot write the results: ${oneLine(error)}\n`);
+  process.exit(1);
 });
 
 run(process.argv.slice(2)).then(
@@ -163,6 +172,9 @@ run(process.argv.slice(2)).then(
     if (error instanceof CommandError) {
       process.stderr.write(`recheck: ${oneLine(error)}\n`);
       process.exitCode = 2;
+    } else if (error instanceof OutputError) {
+      process.stderr.write(`recheck: ${oneLine(error)}\n`);
+      process.exitCode = 1;
     } else {
       process.stderr.write(`recheck failed unexpectedly: ${oneLine(error)}\n`);
       process.exitCode = 1;

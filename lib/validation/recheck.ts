@@ -4,7 +4,11 @@
 // ("9.20" keeps its two decimals); a JSON number is accepted and turned into text with JavaScript's
 // shortest form (9.20 arrives as 9.2 and counts as printed with one decimal). null means "not reported".
 import { z } from "zod";
-import { SHEET_COLUMNS, emptyRecord, nearestName, recordPart, toComparisonInput, unknownColumnMessage } from "@/lib/csv";
+// The catalogue modules only, not lib/csv's index: the entry form imports this schema in the browser and
+// has no use for the streaming reader.
+import { SHEET_COLUMNS } from "@/lib/csv/columns";
+import { nearestName, unknownColumnMessage } from "@/lib/csv/header";
+import { emptyRecord, recordPart, toComparisonInput } from "@/lib/csv/sheet-row";
 import type { FieldErrors } from "@/lib/errors";
 import type { ComparisonInput } from "@/lib/recheck/types";
 

@@ -65,6 +65,7 @@ describe("POST /api/recheck", () => {
     expect(structured.status).toBe(200);
     const a = (await flat.json()) as RecheckResult;
     const b = (await structured.json()) as RecheckResult;
+    expect(a.findings.length).toBeGreaterThan(0);
     expect(b).toEqual(a);
   });
 

@@ -1,11 +1,13 @@
 // The recheck command line (DESIGN §4.5), run as a child process exactly as `npm run recheck` runs it.
-import { execFile } from "node:child_process";
-import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { execFile, spawn } from "node:child_process";
+import { once } from "node:events";
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import Papa from "papaparse";
 import { afterAll, describe, expect, it } from "vitest";
+import { readSheet, sheetHeaderLine, sheetRecordLine } from "@/lib/csv";
 import { ENGINE_VERSION } from "@/lib/recheck";
 
 const ROOT = fileURLToPath(new URL("../../..", import.meta.url));
@@ -165,5 +167,27 @@ describe("recheck command line: results", () => {
     writeFileSync(file, "doi;comparison;method;a_label;b_label\r\n");
     const run = await recheckCli(file);
     expect(run).toEqual({ status: 0, stdout: "", stderr: "" });
+  });
+});
+
+describe("recheck command line: output into a pipe", () => {
+  it("stops quietly with status 0 when the reader closes the pipe after the first line", { timeout: TIMEOUT }, async () => {
+    // 6 000 rows make far more output than a pipe buffers, so the CLI must meet the closed pipe
+    const rows = [];
+    for await (const row of readSheet([readFileSync(join(ROOT, SHEETS, "holzinger-swineford.csv"))])) rows.push(row);
+    let text = sheetHeaderLine();
+    for (let i = 0; i < 2000; i++) for (const row of rows) text += sheetRecordLine({ ...row, comparison: { ...row.comparison, label: `${row.comparison.label} ${i}` } });
+    const file = join(scratch, "long.csv");
+    writeFileSync(file, text);
+
+    const child = spawn(TSX, ["lib/cli/recheck.ts", file], { cwd: ROOT, stdio: ["ignore", "pipe", "pipe"] });
+    let stderr = "";
+    child.stderr.on("data", (chunk: Buffer) => (stderr += chunk.toString()));
+    const [first] = (await once(child.stdout, "data")) as [Buffer];
+    child.stdout.destroy();
+    const [status] = (await once(child, "close")) as [number];
+    expect(JSON.parse(first.toString().split("\n")[0])).toMatchObject({ row: 1 });
+    expect(status).toBe(0);
+    expect(stderr).toBe("");
   });
 });
