@@ -38,7 +38,7 @@ export interface SheetRecord {
 export interface SheetRow extends SheetRecord {
   row: number;
   /** problems with the row as a whole (wrong number of cells, broken quoting); column is WHOLE_ROW */
-  problems: FieldError[];
+  problems: readonly FieldError[];
 }
 
 /** The `column` of a problem that concerns the whole row rather than one cell. */
@@ -60,6 +60,9 @@ export type ColumnSpec =
   | Spec<"a" | "b", ModelInput>;
 
 export type ColumnPart = ColumnSpec["part"];
+
+/** The record parts in a fixed order, so a row builder can address them by number. */
+export const PART_ORDER: readonly ColumnPart[] = ["paper", "sample", "comparison", "a", "b"];
 
 function paper(name: string, key: keyof SheetPaper, requirement: Requirement = "optional"): ColumnSpec {
   return { name, part: "paper", key, requirement };

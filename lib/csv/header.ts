@@ -1,11 +1,14 @@
 // Reading a sheet's header row against the column catalogue: names are trimmed and case-insensitive; an
 // unknown name is refused with the nearest known column, because a typo must never silently lose data.
-import { COLUMNS_BY_NAME, SHEET_COLUMNS, type ColumnSpec } from "@/lib/csv/columns";
+import { COLUMNS_BY_NAME, PART_ORDER, SHEET_COLUMNS, type ColumnSpec } from "@/lib/csv/columns";
 import { SheetError } from "@/lib/csv/sheet-error";
 
 /** The header resolved: the catalogue column behind each position of a row. */
 export interface SheetLayout {
   columns: readonly ColumnSpec[];
+  /** per position: the index in PART_ORDER of the part the column fills, and the field's key */
+  partSlots: readonly number[];
+  keys: readonly string[];
 }
 
 export function normaliseColumnName(raw: string): string {
@@ -106,5 +109,5 @@ export function resolveHeader(cells: readonly string[]): SheetLayout {
   if (!seen.has("doi") && !seen.has("paper_ref")) {
     throw new SheetError("missing_column", `required column "doi" (or "paper_ref" when a paper has no DOI) missing from the header`);
   }
-  return { columns };
+  return { columns, partSlots: columns.map((c) => PART_ORDER.indexOf(c.part)), keys: columns.map((c) => c.key) };
 }

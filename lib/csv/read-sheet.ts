@@ -16,6 +16,9 @@ import type { FieldError } from "@/lib/recheck/types";
 
 export type ByteSource = AsyncIterable<Uint8Array> | Iterable<Uint8Array>;
 
+/** Shared by every sound row, so that reading a row allocates no empty array for it. */
+const NO_PROBLEMS: readonly FieldError[] = Object.freeze([]);
+
 /** A header line longer than this without a line break is not a comparison sheet's header. */
 const MAX_HEADER_CHARS = 1 << 20;
 
@@ -79,13 +82,13 @@ export class SheetParser {
         continue;
       }
       this.records++;
-      const problems = problemsAt.get(i) ?? [];
-      if (problems.length === 0 && isBlank(cells)) continue;
+      let problems = problemsAt.get(i);
+      if (problems === undefined && isBlank(cells)) continue;
       const width = this.layout.columns.length;
       if (cells.length !== width) {
-        problems.push({ column: WHOLE_ROW, message: `has ${cells.length} cells but the header has ${width} columns` });
+        (problems ??= []).push({ column: WHOLE_ROW, message: `has ${cells.length} cells but the header has ${width} columns` });
       }
-      rows.push(buildRow(this.layout, cells, this.records, problems));
+      rows.push(buildRow(this.layout, cells, this.records, problems ?? NO_PROBLEMS));
     }
     if (final && !this.layout) throw new SheetError("empty_file", "the file is empty (no header row)");
     return rows;

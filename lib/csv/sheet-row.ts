@@ -39,20 +39,21 @@ export function recordPart(record: SheetRecord, part: ColumnPart): TextFields {
  * escape is removed, a valid DOI is normalised, and the §5 defaults fill an empty sample label and group
  * count. Cells beyond the header (a row with too many cells) are not read; `problems` says why.
  */
-export function buildRow(layout: SheetLayout, cells: readonly string[], row: number, problems: FieldError[]): SheetRow {
-  const record = emptyRecord();
-  const columns = layout.columns;
-  const count = Math.min(columns.length, cells.length);
+export function buildRow(layout: SheetLayout, cells: readonly string[], row: number, problems: readonly FieldError[]): SheetRow {
+  const sheetRow: SheetRow = { row, problems, paper: {}, sample: {}, comparison: {}, restricted: {}, free: {} };
+  // in PART_ORDER; one array per row instead of a switch per cell (this loop runs for every cell of the file)
+  const parts = [sheetRow.paper, sheetRow.sample, sheetRow.comparison, sheetRow.restricted, sheetRow.free] as TextFields[];
+  const { partSlots, keys } = layout;
+  const count = Math.min(keys.length, cells.length);
   for (let i = 0; i < count; i++) {
     const cell = cells[i];
-    if (cell === "") continue;
-    const column = columns[i];
-    recordPart(record, column.part)[column.key] = unescapeFormula(cell);
+    if (cell !== "") parts[partSlots[i]][keys[i]] = unescapeFormula(cell);
   }
-  if (record.paper.doi !== undefined) record.paper.doi = normaliseDoi(record.paper.doi) ?? record.paper.doi;
-  record.sample.label ??= DEFAULT_SAMPLE_LABEL;
-  record.sample.groups ??= DEFAULT_GROUP_COUNT;
-  return { row, problems, ...record };
+  const { paper, sample } = sheetRow;
+  if (paper.doi !== undefined) paper.doi = normaliseDoi(paper.doi) ?? paper.doi;
+  sample.label ??= DEFAULT_SAMPLE_LABEL;
+  sample.groups ??= DEFAULT_GROUP_COUNT;
+  return sheetRow;
 }
 
 /** The engine's input for a row: the comparison's figures with its sample and two models. */

@@ -16,7 +16,7 @@ function missing(value: string | undefined): boolean {
 
 /** The sheet-level checks only (cheap; no figures). A row with a structural problem reports just that. */
 export function checkSheetRow(row: SheetRow, today: Date = new Date()): FieldError[] {
-  if (row.problems.length > 0) return row.problems;
+  if (row.problems.length > 0) return [...row.problems];
   return checkSheetRecord(row, today);
 }
 
@@ -59,6 +59,6 @@ export function mergeFieldErrors(first: readonly FieldError[], second: readonly 
 
 /** Everything wrong with a row: its structure, the sheet rules, and each figure the engine cannot read. */
 export function validateSheetRow(row: SheetRow, today: Date = new Date()): FieldError[] {
-  if (row.problems.length > 0) return row.problems;
+  if (row.problems.length > 0) return [...row.problems];
   return mergeFieldErrors(checkSheetRecord(row, today), validateComparison(toComparisonInput(row)));
 }
