@@ -1,5 +1,6 @@
 import type { QueryInterface } from "sequelize";
 import * as initialSchema from "./0001-initial-schema";
+import * as passwordResetTokens from "./0002-password-reset-tokens";
 
 // Every migration, in order. To add one: create `NNNN-what-it-does.ts` exporting up/down, and list it
 // here. A static list (instead of a glob) works the same under tsx, vitest and any bundler.
@@ -9,4 +10,7 @@ export interface Migration {
   down: (params: { context: QueryInterface }) => Promise<void>;
 }
 
-export const migrations: Migration[] = [{ name: "0001-initial-schema", ...initialSchema }];
+export const migrations: Migration[] = [
+  { name: "0001-initial-schema", ...initialSchema },
+  { name: "0002-password-reset-tokens", ...passwordResetTokens },
+];

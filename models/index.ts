@@ -7,14 +7,15 @@ import { FlagDisposition } from "./flag-disposition";
 import { ImportBatch } from "./import-batch";
 import { OutboxMessage } from "./outbox-message";
 import { Paper } from "./paper";
+import { PasswordResetToken } from "./password-reset-token";
 import { Sample } from "./sample";
 import { SavedSearch } from "./saved-search";
 import { Setting } from "./setting";
 import { User } from "./user";
 
-export { AuditEvent, Comparison, FitModel, Flag, FlagDisposition, ImportBatch, OutboxMessage, Paper, Sample, SavedSearch, Setting, User };
+export { AuditEvent, Comparison, FitModel, Flag, FlagDisposition, ImportBatch, OutboxMessage, Paper, PasswordResetToken, Sample, SavedSearch, Setting, User };
 
-export const models = { AuditEvent, Comparison, FitModel, Flag, FlagDisposition, ImportBatch, OutboxMessage, Paper, Sample, SavedSearch, Setting, User };
+export const models = { AuditEvent, Comparison, FitModel, Flag, FlagDisposition, ImportBatch, OutboxMessage, Paper, PasswordResetToken, Sample, SavedSearch, Setting, User };
 export type Models = typeof models;
 
 /** Initialises every model on one Sequelize instance and wires the associations (DESIGN §3). */
@@ -55,6 +56,7 @@ export function initModels(sequelize: Sequelize): Models {
   ImportBatch.belongsTo(User, { foreignKey: "uploaderId", as: "uploader" });
   User.hasMany(SavedSearch, { foreignKey: "userId", as: "savedSearches" });
   SavedSearch.belongsTo(User, { foreignKey: "userId", as: "user" });
+  PasswordResetToken.belongsTo(User, { foreignKey: "userId", as: "user", onDelete: "CASCADE" });
 
   return models;
 }
