@@ -1,6 +1,8 @@
 // Writes the demo corpus and the demo accounts. Idempotent: accounts are matched by e-mail and papers by
 // DOI, so running it twice changes nothing. Every write goes through the audited helpers.
 import bcrypt from "bcryptjs";
+import type { CreationAttributes } from "sequelize";
+import type { Comparison, FitModel } from "@/models";
 import type { Database } from "@/lib/db/connection";
 import { createAudited } from "@/lib/db/audit";
 import { readRecheckSettings, rewriteFlagsForPaper } from "@/lib/db/flags";
@@ -72,7 +74,7 @@ async function seedPaper(database: Database, paper: DemoPaper, index: number, us
             estimator: model.estimator,
             meanStructure: model.meanStructure,
             ...(figureColumns(model.figures, MODEL_FIGURES) as object),
-          } as Parameters<typeof models.FitModel.create>[0],
+          } as CreationAttributes<FitModel>,
           context,
         );
         modelIds.set(model.label, modelRow.id);
@@ -95,7 +97,7 @@ async function seedPaper(database: Database, paper: DemoPaper, index: number, us
             invarianceClaimed: comparison.invarianceClaimed,
             notes: comparison.notes,
             ...(figureColumns(comparison.figures, COMPARISON_FIGURES) as object),
-          } as Parameters<typeof models.Comparison.create>[0],
+          } as CreationAttributes<Comparison>,
           context,
         );
         comparisons += 1;
@@ -106,28 +108,30 @@ async function seedPaper(database: Database, paper: DemoPaper, index: number, us
   });
 }
 
-export async function seedDemo(database: Database): Promise<SeedSummary> {
-  await database.ready;
+/** The demo accounts (matched by e-mail), returning every account's id by e-mail. */
+export async function seedAccounts(database: Database): Promise<{ users: Map<string, number>; created: number }> {
   const { models } = database;
-  const summary: SeedSummary = { accountsCreated: 0, papersCreated: 0, comparisonsCreated: 0, flagsWritten: 0 };
-
   const passwordHash = await bcrypt.hash(DEMO_PASSWORD, 10);
   const users = new Map<string, number>();
+  let created = 0;
   for (const account of DEMO_ACCOUNTS) {
     const existing = await models.User.findOne({ where: { email: account.email }, attributes: ["id"] });
     if (existing) {
       users.set(account.email, existing.id);
       continue;
     }
-    const created = await createAudited(
-      models.User,
-      { ...account, reason: "Demo account", passwordHash, statusNote: null },
-      { actorId: null, action: "seed" },
-    );
-    users.set(account.email, created.id);
-    summary.accountsCreated += 1;
+    const row = await createAudited(models.User, { ...account, reason: "Demo account", passwordHash, statusNote: null }, { actorId: null, action: "seed" });
+    users.set(account.email, row.id);
+    created += 1;
   }
+  return { users, created };
+}
 
+export async function seedDemo(database: Database): Promise<SeedSummary> {
+  await database.ready;
+  const { models } = database;
+  const { users, created } = await seedAccounts(database);
+  const summary: SeedSummary = { accountsCreated: created, papersCreated: 0, comparisonsCreated: 0, flagsWritten: 0 };
   const { papers } = demoCorpus();
   const existing = new Set((await models.Paper.findAll({ attributes: ["doi"], raw: true })).map((paper) => paper.doi));
   const settings = await readRecheckSettings();

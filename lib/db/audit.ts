@@ -1,4 +1,4 @@
-import type { Model, ModelStatic, Transaction } from "sequelize";
+import type { CreationAttributes, Model, ModelStatic, Transaction } from "sequelize";
 import { AuditEvent } from "@/models";
 
 // Every write path goes through these helpers, so each change leaves an AuditEvent with the row before
@@ -49,7 +49,7 @@ export async function recordEvent(record: AuditRecord, context: WriteContext): P
 
 export async function createAudited<M extends Model>(
   model: ModelStatic<M>,
-  values: M["_creationAttributes"],
+  values: CreationAttributes<M>,
   context: WriteContext & { action?: string },
 ): Promise<M> {
   const row = await model.create(values, { transaction: context.transaction });

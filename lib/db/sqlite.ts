@@ -21,12 +21,19 @@ export function ensureWritableStorage(storage: string): void {
   if (storage === ":memory:") return;
   const folder = path.dirname(path.resolve(storage));
   try {
-    fs.mkdirSync(folder, { recursive: true });
+    makeFolders(folder);
     fs.accessSync(folder, fs.constants.W_OK);
     if (fs.existsSync(storage)) fs.accessSync(storage, fs.constants.R_OK | fs.constants.W_OK);
   } catch {
     throw new Error(`The database path ${storage} is not writable: create its folder or set DATABASE_URL to a writable file (see .env.example).`);
   }
+}
+
+/** mkdir -p, one level at a time: `recursive: true` can spin forever on some virtual filesystems (/proc). */
+function makeFolders(folder: string): void {
+  if (fs.existsSync(folder)) return;
+  makeFolders(path.dirname(folder));
+  fs.mkdirSync(folder);
 }
 
 /**

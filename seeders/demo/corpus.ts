@@ -110,6 +110,38 @@ function journalAbbreviation(name: string): string {
     .join("");
 }
 
+/** One invented paper; `pending` lists the slip kinds still to be planted somewhere. */
+export function generatePaper(index: number, random: Random, pending: string[]): DemoPaper {
+  const plan: PaperPlan = { index, design: designFor(index, random) };
+  const instrument = random.pick(INSTRUMENTS);
+  const { built, title } = buildSamples(plan, random, instrument);
+  const slip = random.chance(0.5) ? plantSlip(built, random, pending) : null;
+  const journal = JOURNALS[index % JOURNALS.length];
+  const year = 2008 + ((index * 7) % 18);
+  const state = pickState(random);
+  const coder = CODERS[index % CODERS.length];
+  const verifier = state === "verified" ? (coder === "curator2@fitledger.test" ? "curator@fitledger.test" : random.pick(["curator@fitledger.test", "curator2@fitledger.test"])) : null;
+  const firstPage = random.integer(1, 900);
+  return {
+    doi: `10.5555/${journalAbbreviation(journal.name)}.${year}.${String(1000 + index)}`,
+    title,
+    authors: authorsFor(random),
+    journal: journal.name,
+    issn: journal.issn,
+    year,
+    volume: String(year - 1990),
+    issue: String(random.integer(1, 6)),
+    pages: `${firstPage}–${firstPage + random.integer(8, 30)}`,
+    field: journal.field,
+    state,
+    coder,
+    verifier,
+    curatorComment: state === "returned" ? "Please check the Δdf of the first comparison against Table 2 and the sample size of the second group." : null,
+    samples: built.map((entry) => entry.sample),
+    slip,
+  };
+}
+
 let cached: { papers: DemoPaper[]; registryOnly: DemoPaper[] } | undefined;
 
 /** Deterministic: the same corpus on every machine and every run. */
@@ -118,36 +150,7 @@ export function demoCorpus(): { papers: DemoPaper[]; registryOnly: DemoPaper[] }
   const random = new Random(20261201);
   const pending = Object.keys(SLIPS).filter((code) => !BY_DESIGN.has(code));
   const all: DemoPaper[] = [];
-  for (let index = 0; index < 176; index += 1) {
-    const plan: PaperPlan = { index, design: designFor(index, random) };
-    const instrument = random.pick(INSTRUMENTS);
-    const { built, title } = buildSamples(plan, random, instrument);
-    const slip = random.chance(0.5) ? plantSlip(built, random, pending) : null;
-    const journal = JOURNALS[index % JOURNALS.length];
-    const year = 2008 + ((index * 7) % 18);
-    const state = pickState(random);
-    const coder = CODERS[index % CODERS.length];
-    const verifier = state === "verified" ? (coder === "curator2@fitledger.test" ? "curator@fitledger.test" : random.pick(["curator@fitledger.test", "curator2@fitledger.test"])) : null;
-    const firstPage = random.integer(1, 900);
-    all.push({
-      doi: `10.5555/${journalAbbreviation(journal.name)}.${year}.${String(1000 + index)}`,
-      title,
-      authors: authorsFor(random),
-      journal: journal.name,
-      issn: journal.issn,
-      year,
-      volume: String(year - 1990),
-      issue: String(random.integer(1, 6)),
-      pages: `${firstPage}–${firstPage + random.integer(8, 30)}`,
-      field: journal.field,
-      state,
-      coder,
-      verifier,
-      curatorComment: state === "returned" ? "Please check the Δdf of the first comparison against Table 2 and the sample size of the second group." : null,
-      samples: built.map((entry) => entry.sample),
-      slip,
-    });
-  }
+  for (let index = 0; index < 176; index += 1) all.push(generatePaper(index, random, pending));
   if (pending.length > 0) throw new Error(`demo corpus: no paper could carry the slip(s) ${pending.join(", ")}`);
   cached = { papers: all.slice(0, 160), registryOnly: all.slice(160) };
   return cached;
