@@ -20,7 +20,8 @@ data row to standard output. Row 1 is the first row after the header.
   -h, --help       show this text
 
 Exit status: 0 when the file was read (whatever was flagged); 2 when it could not be read as a
-comparison sheet or the command line is wrong (one line on standard error).`;
+comparison sheet or the command line is wrong; 1 when the results could not be written. Each failure
+is one line on standard error.`;
 
 type Format = "jsonl" | "csv";
 type Command = { help: true } | { help: false; file: string; format: Format };
@@ -46,7 +47,7 @@ function parseArguments(args: readonly string[]): Command {
         throw new CommandError(value === undefined ? "--format needs a value: jsonl or csv" : `unknown format "${value}" (use jsonl or csv)`);
       }
       format = value;
-    } else if (!optionsEnded && arg.startsWith("-") && arg !== "-") {
+    } else if (!optionsEnded && arg.startsWith("-")) {
       throw new CommandError(`unknown option ${arg} (see --help)`);
     } else if (file === undefined) {
       file = arg;
