@@ -1,6 +1,7 @@
 import Link from "next/link";
 import { LedgerMark } from "./ledger-mark";
 import { NAV_ITEMS } from "./site-nav-items";
+import { UserMenu } from "./user-menu";
 
 export function SiteHeader() {
   return (
@@ -20,6 +21,9 @@ export function SiteHeader() {
               </li>
             ))}
           </ul>
+        </nav>
+        <nav aria-label="Account" className="ml-auto">
+          <UserMenu />
         </nav>
       </div>
     </header>

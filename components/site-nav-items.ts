@@ -1,7 +1,18 @@
+import type { Role } from "@/lib/auth/roles";
+
 /** The header's sections. A feature adds its entry here when its page exists. */
 export interface NavItem {
   href: string;
   label: string;
+  /** shown only to signed-in people whose role reaches this one */
+  minRole?: Role;
 }
 
 export const NAV_ITEMS: NavItem[] = [{ href: "/", label: "Overview" }];
+
+/** Entries of the signed-in person's menu, by the role they need. */
+export const ACCOUNT_NAV_ITEMS: NavItem[] = [
+  { href: "/workbench", label: "Workbench", minRole: "contributor" },
+  { href: "/admin/people", label: "People", minRole: "admin" },
+  { href: "/admin/outbox", label: "Outbox", minRole: "admin" },
+];

@@ -1,0 +1,19 @@
+"use server";
+
+import { revalidatePath } from "next/cache";
+import { changePassword, updateProfile } from "@/lib/auth/accounts";
+import { actionWithRole } from "@/lib/auth/guard";
+import { changePasswordSchema, profileSchema } from "@/lib/validation/account";
+
+// Changes to one's own account. The account comes from the session, never from the form, so a
+// forged id or role in the body changes nothing (the schemas drop unknown fields).
+
+export const saveProfile = actionWithRole("reader", profileSchema, async (input, user) => {
+  const message = await updateProfile({ user, name: input.name, affiliation: input.affiliation });
+  revalidatePath("/account");
+  return message;
+});
+
+export const changeOwnPassword = actionWithRole("reader", changePasswordSchema, async (input, user, { address }) =>
+  changePassword({ user, currentPassword: input.currentPassword, newPassword: input.newPassword }, { address }),
+);
