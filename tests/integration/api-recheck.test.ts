@@ -109,6 +109,23 @@ describe("POST /api/recheck", () => {
     expect(asNumber).toEqual(asText);
   });
 
+  it("reads null as not reported, like an empty sheet cell", async () => {
+    const { b_rmsea: _omitted, ...withoutRmsea } = FLAT;
+    const asNull = await (await post(JSON.stringify({ ...FLAT, b_rmsea: null }))).json();
+    const absent = await (await post(JSON.stringify(withoutRmsea))).json();
+    expect(_omitted).toBe(".092");
+    expect(asNull).toEqual(absent);
+  });
+
+  it("asks for both models in a structured body", async () => {
+    const { free: _free, ...onlyRestricted } = STRUCTURED;
+    const response = await post(JSON.stringify(onlyRestricted));
+    expect(_free.label).toBe("Three factors");
+    expect(response.status).toBe(400);
+    const body = (await response.json()) as { error: { fields: Record<string, string[]> } };
+    expect(Object.keys(body.error.fields)).toEqual(["free"]);
+  });
+
   it("answers 400 for a body that is not valid JSON, and for JSON that is not an object", async () => {
     const broken = await post("{method: lrt");
     expect(broken.status).toBe(400);
