@@ -1,7 +1,7 @@
 // Turns the printed cells of one comparison into numbers with their rounding intervals, collecting a
 // FieldError (named by its DESIGN §5 sheet column) for every cell that cannot be read. Empty cells are
 // "not reported" (null), never zero.
-import { isBlank, readPrintedInteger, readPrintedNumber, readPrintedP, type PrintedNumber, type PrintedP } from "./printed";
+import { isBlank as isBlankImport, readPrintedInteger as readPrintedIntegerImport, readPrintedNumber as readPrintedNumberImport, readPrintedP as readPrintedPImport, type PrintedNumber, type PrintedP } from "./printed";
 import {
   ESTIMATORS,
   INVARIANCE_CLAIMS,
@@ -19,6 +19,13 @@ import {
   type Preferred,
   type SampleInput,
 } from "./types";
+
+// Imported functions bound once: under tsx (CommonJS output, as the CLI runs) each call to an import
+// otherwise goes through an export getter, which showed up in the engine benchmark's profile.
+const isBlank = isBlankImport;
+const readPrintedInteger = readPrintedIntegerImport;
+const readPrintedNumber = readPrintedNumberImport;
+const readPrintedP = readPrintedPImport;
 
 export interface ParsedModel {
   label: string;
@@ -130,63 +137,118 @@ function readPCell(text: string | undefined, column: string, alpha: number, erro
   return result.value;
 }
 
-function readChoiceCell<T extends string>(
-  text: string | undefined,
-  column: string,
-  choices: readonly T[],
-  errors: FieldError[],
-  aliases?: Record<string, T>,
-): T | null {
+/** A lookup table for a choice column: exact and lower-cased spellings (plus aliases) → value. */
+interface Choices<T extends string> {
+  map: Map<string, T>;
+  list: string;
+}
+
+function choices<T extends string>(values: readonly T[], aliases: Record<string, T> = {}): Choices<T> {
+  const map = new Map<string, T>();
+  for (const value of values) {
+    map.set(value, value);
+    map.set(value.toLowerCase(), value);
+  }
+  for (const [alias, value] of Object.entries(aliases)) map.set(alias, value);
+  return { map, list: values.join(", ") };
+}
+
+function readChoiceCell<T extends string>(text: string | undefined, column: string, table: Choices<T>, errors: FieldError[]): T | null {
   if (isBlank(text)) return null;
-  const key = text.trim().toLowerCase();
-  for (const choice of choices) if (choice.toLowerCase() === key) return choice;
-  if (aliases !== undefined && key in aliases) return aliases[key];
-  errors.push({ column, message: `"${text.trim()}" is not one of ${choices.join(", ")}` });
+  const exact = table.map.get(text);
+  if (exact !== undefined) return exact;
+  const found = table.map.get(text.trim().toLowerCase());
+  if (found !== undefined) return found;
+  errors.push({ column, message: `"${text.trim()}" is not one of ${table.list}` });
   return null;
 }
 
 const YES_NO_ALIASES: Record<string, "yes" | "no"> = { y: "yes", n: "no", true: "yes", false: "no", "1": "yes", "0": "no" };
+const ESTIMATOR_CHOICES = choices(ESTIMATORS);
+const YES_NO_CHOICES = choices(["yes", "no"] as const, YES_NO_ALIASES);
+const METHOD_CHOICES = choices(METHODS);
+const NESTED_CHOICES = choices(NESTED_VALUES);
+const PREFERRED_CHOICES = choices(PREFERRED_VALUES);
+const INVARIANCE_CHOICES = choices(INVARIANCE_CLAIMS, YES_NO_ALIASES);
 
-const SB_ESTIMATORS: ReadonlySet<Estimator> = new Set(ROBUST_ESTIMATORS);
+const ROBUST_SET: ReadonlySet<Estimator> = new Set(ROBUST_ESTIMATORS);
+
+// Sheet column names per prefix, built once (no string concatenation per cell).
+const MODEL_COLUMN_SUFFIXES = {
+  estimator: "estimator",
+  chisq: "chisq",
+  df: "df",
+  p: "p",
+  chisqScaled: "chisq_scaled",
+  scaling: "scaling",
+  cfi: "cfi",
+  tli: "tli",
+  rmsea: "rmsea",
+  rmseaLo: "rmsea_lo",
+  rmseaHi: "rmsea_hi",
+  srmr: "srmr",
+  aic: "aic",
+  bic: "bic",
+  loglik: "loglik",
+  loglikScaling: "loglik_scaling",
+  npar: "npar",
+  nObserved: "n_observed",
+  nFixedX: "n_fixed_x",
+  meanStructure: "mean_structure",
+  baselineChisq: "baseline_chisq",
+  baselineDf: "baseline_df",
+} as const;
+
+type ModelColumns = { -readonly [K in keyof typeof MODEL_COLUMN_SUFFIXES]: string };
+
+function columnsFor(prefix: string): ModelColumns {
+  const out = {} as ModelColumns;
+  for (const key of Object.keys(MODEL_COLUMN_SUFFIXES) as Array<keyof ModelColumns>) out[key] = prefix + MODEL_COLUMN_SUFFIXES[key];
+  return out;
+}
+
+const COLUMNS: Record<string, ModelColumns> = { a_: columnsFor("a_"), b_: columnsFor("b_"), "": columnsFor("") };
 
 /** Reads one model's cells; `prefix` is "a_", "b_" or "" (a model checked on its own). */
 export function parseModel(input: ModelInput, prefix: string, alpha: number, errors: FieldError[]): ParsedModel {
-  const estimator = readChoiceCell(input.estimator, prefix + "estimator", ESTIMATORS, errors);
-  const chisqScaled = readNumberCell(input.chisqScaled, prefix + "chisq_scaled", "nonNegative", errors);
-  const scaling = readNumberCell(input.scaling, prefix + "scaling", "positive", errors);
-  const nObserved = readIntegerCell(input.nObserved, prefix + "n_observed", 1, errors);
-  const nFixedX = readIntegerCell(input.nFixedX, prefix + "n_fixed_x", 0, errors);
+  const col = COLUMNS[prefix] ?? columnsFor(prefix);
+  const estimator = readChoiceCell(input.estimator, col.estimator, ESTIMATOR_CHOICES, errors);
+  const chisqScaled = readNumberCell(input.chisqScaled, col.chisqScaled, "nonNegative", errors);
+  const scaling = readNumberCell(input.scaling, col.scaling, "positive", errors);
+  const nObserved = readIntegerCell(input.nObserved, col.nObserved, 1, errors);
+  const nFixedX = readIntegerCell(input.nFixedX, col.nFixedX, 0, errors);
   if (nObserved !== null && nFixedX !== null && nFixedX > nObserved) {
-    errors.push({ column: prefix + "n_fixed_x", message: `${nFixedX} fixed-x variables but only ${nObserved} observed variables` });
+    errors.push({ column: col.nFixedX, message: `${nFixedX} fixed-x variables but only ${nObserved} observed variables` });
   }
-  const meanStructure = readChoiceCell(input.meanStructure, prefix + "mean_structure", ["yes", "no"] as const, errors, YES_NO_ALIASES);
+  const meanStructure = readChoiceCell(input.meanStructure, col.meanStructure, YES_NO_CHOICES, errors);
+  const label = input.label;
   return {
-    label: input.label?.trim() ?? "",
+    label: label === undefined ? "" : label.trim(),
     estimator,
     // A model without a named estimator but with a printed scaled statistic or scaling factor was
     // evidently fitted with a robust correction.
-    robust: estimator !== null ? SB_ESTIMATORS.has(estimator) : chisqScaled !== null || scaling !== null,
-    chisq: readNumberCell(input.chisq, prefix + "chisq", "nonNegative", errors),
-    df: readIntegerCell(input.df, prefix + "df", null, errors),
-    p: readPCell(input.p, prefix + "p", alpha, errors),
+    robust: estimator !== null ? ROBUST_SET.has(estimator) : chisqScaled !== null || scaling !== null,
+    chisq: readNumberCell(input.chisq, col.chisq, "nonNegative", errors),
+    df: readIntegerCell(input.df, col.df, null, errors),
+    p: readPCell(input.p, col.p, alpha, errors),
     chisqScaled,
     scaling,
-    cfi: readNumberCell(input.cfi, prefix + "cfi", "unit", errors),
-    tli: readNumberCell(input.tli, prefix + "tli", "any", errors),
-    rmsea: readNumberCell(input.rmsea, prefix + "rmsea", "nonNegative", errors),
-    rmseaLo: readNumberCell(input.rmseaLo, prefix + "rmsea_lo", "nonNegative", errors),
-    rmseaHi: readNumberCell(input.rmseaHi, prefix + "rmsea_hi", "nonNegative", errors),
-    srmr: readNumberCell(input.srmr, prefix + "srmr", "nonNegative", errors),
-    aic: readNumberCell(input.aic, prefix + "aic", "any", errors),
-    bic: readNumberCell(input.bic, prefix + "bic", "any", errors),
-    loglik: readNumberCell(input.loglik, prefix + "loglik", "any", errors),
-    loglikScaling: readNumberCell(input.loglikScaling, prefix + "loglik_scaling", "positive", errors),
-    npar: readIntegerCell(input.npar, prefix + "npar", 1, errors),
+    cfi: readNumberCell(input.cfi, col.cfi, "unit", errors),
+    tli: readNumberCell(input.tli, col.tli, "any", errors),
+    rmsea: readNumberCell(input.rmsea, col.rmsea, "nonNegative", errors),
+    rmseaLo: readNumberCell(input.rmseaLo, col.rmseaLo, "nonNegative", errors),
+    rmseaHi: readNumberCell(input.rmseaHi, col.rmseaHi, "nonNegative", errors),
+    srmr: readNumberCell(input.srmr, col.srmr, "nonNegative", errors),
+    aic: readNumberCell(input.aic, col.aic, "any", errors),
+    bic: readNumberCell(input.bic, col.bic, "any", errors),
+    loglik: readNumberCell(input.loglik, col.loglik, "any", errors),
+    loglikScaling: readNumberCell(input.loglikScaling, col.loglikScaling, "positive", errors),
+    npar: readIntegerCell(input.npar, col.npar, 1, errors),
     nObserved,
     nFixedX,
     meanStructure: meanStructure === null ? null : meanStructure === "yes",
-    baselineChisq: readNumberCell(input.baselineChisq, prefix + "baseline_chisq", "nonNegative", errors),
-    baselineDf: readIntegerCell(input.baselineDf, prefix + "baseline_df", 1, errors),
+    baselineChisq: readNumberCell(input.baselineChisq, col.baselineChisq, "nonNegative", errors),
+    baselineDf: readIntegerCell(input.baselineDf, col.baselineDf, 1, errors),
   };
 }
 
@@ -215,14 +277,14 @@ export function parseAlpha(text: string | undefined, fallback: number, errors: F
 /** Parses a whole comparison; `errors` collects every unreadable cell. */
 export function parseComparison(input: ComparisonInput, defaultAlpha: number, errors: FieldError[]): ParsedComparison {
   const alpha = parseAlpha(input.alpha, defaultAlpha, errors);
-  const method = readChoiceCell(input.method, "method", METHODS, errors);
+  const method = readChoiceCell(input.method, "method", METHOD_CHOICES, errors);
   if (method === null && isBlank(input.method)) {
     errors.push({ column: "method", message: `the comparison method is required: one of ${METHODS.join(", ")}` });
   }
   return {
-    label: input.label?.trim() ?? "",
+    label: input.label === undefined ? "" : input.label.trim(),
     method,
-    nested: readChoiceCell(input.nested, "nested", NESTED_VALUES, errors) ?? "unknown",
+    nested: readChoiceCell(input.nested, "nested", NESTED_CHOICES, errors) ?? "unknown",
     alpha,
     dChisq: readNumberCell(input.dChisq, "d_chisq", "any", errors),
     dDf: readIntegerCell(input.dDf, "d_df", null, errors),
@@ -231,8 +293,8 @@ export function parseComparison(input: ComparisonInput, defaultAlpha: number, er
     dRmsea: readNumberCell(input.dRmsea, "d_rmsea", "any", errors),
     dAic: readNumberCell(input.dAic, "d_aic", "any", errors),
     dBic: readNumberCell(input.dBic, "d_bic", "any", errors),
-    preferred: readChoiceCell(input.preferred, "preferred", PREFERRED_VALUES, errors),
-    invarianceClaimed: readChoiceCell(input.invarianceClaimed, "invariance_claimed", INVARIANCE_CLAIMS, errors, YES_NO_ALIASES),
+    preferred: readChoiceCell(input.preferred, "preferred", PREFERRED_CHOICES, errors),
+    invarianceClaimed: readChoiceCell(input.invarianceClaimed, "invariance_claimed", INVARIANCE_CHOICES, errors),
     sample: parseSample(input.sample ?? {}, errors),
     restricted: parseModel(input.restricted ?? {}, "a_", alpha, errors),
     free: parseModel(input.free ?? {}, "b_", alpha, errors),

@@ -52,7 +52,8 @@ function isDigit(code: number): boolean {
  * words are rejected rather than guessed: "1,234" could be 1234 or 1.234).
  */
 export function readPrintedNumber(raw: string): PrintedNumber | null {
-  const text = raw.trim();
+  // trim() allocates; most cells need none.
+  const text = raw.length > 0 && raw.charCodeAt(0) > 32 && raw.charCodeAt(raw.length - 1) > 32 ? raw : raw.trim();
   const length = text.length;
   let i = 0;
   let negative = false;

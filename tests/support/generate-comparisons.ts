@@ -204,19 +204,31 @@ interface Reporting {
   scaled: boolean;
 }
 
+/**
+ * Every column present, in one fixed order, unreported ones undefined: a sheet row has every column,
+ * and same-shaped objects are what the sheet reader hands the engine.
+ */
+function emptyModel(): ModelInput {
+  return {
+    label: undefined, estimator: undefined, chisq: undefined, df: undefined, p: undefined, chisqScaled: undefined, scaling: undefined,
+    cfi: undefined, tli: undefined, rmsea: undefined, rmseaLo: undefined, rmseaHi: undefined, srmr: undefined, aic: undefined, bic: undefined,
+    loglik: undefined, loglikScaling: undefined, npar: undefined, nObserved: undefined, nFixedX: undefined, meanStructure: undefined,
+    baselineChisq: undefined, baselineDf: undefined,
+  };
+}
+
 function modelFigures(s: Scenario, m: TrueModel, r: Reporting, random: Random, label: string): ModelInput {
   const k = s.k;
   const scaled = m.chisq / m.scaling;
   const stat = s.robust ? scaled : m.chisq;
   const baseline = s.robust ? s.baselineChisq / s.baselineScaling : s.baselineChisq;
-  const input: ModelInput = {
-    label,
-    estimator: s.estimator,
-    chisq: fixed(m.chisq, k),
-    df: String(m.df),
-    p: !s.robust || r.scaled ? printP(random, chisqUpperTail(stat, m.df), 3) : undefined,
-    rmsea: fixed(rmseaOf(stat, m.df, s.n, s.groups), 3),
-  };
+  const input = emptyModel();
+  input.label = label;
+  input.estimator = s.estimator;
+  input.chisq = fixed(m.chisq, k);
+  input.df = String(m.df);
+  input.p = !s.robust || r.scaled ? printP(random, chisqUpperTail(stat, m.df), 3) : undefined;
+  input.rmsea = fixed(rmseaOf(stat, m.df, s.n, s.groups), 3);
   if (s.robust) {
     if (r.scaled) input.chisqScaled = fixed(scaled, k);
     if (r.scaling || !r.scaled) input.scaling = fixed(m.scaling, 3);
@@ -269,6 +281,16 @@ function comparisonFigures(s: Scenario, random: Random, index: number): Comparis
     label: `C${index}`,
     method: s.method,
     nested: "yes",
+    alpha: undefined,
+    dChisq: undefined,
+    dDf: undefined,
+    dP: undefined,
+    dCfi: undefined,
+    dRmsea: undefined,
+    dAic: undefined,
+    dBic: undefined,
+    preferred: undefined,
+    invarianceClaimed: undefined,
     sample: { label: "Sample 1", n: String(s.n), groups: String(s.groups) },
     restricted,
     free,
@@ -382,17 +404,17 @@ function plant(kind: PlantedError, c: ComparisonInput, s: Scenario, random: Rand
       a.chisqScaled = fixed(s.a.chisq / cA, k);
       b.chisqScaled = fixed(s.b.chisq / cB, k);
       for (const m of [a, b]) {
-        delete m.p;
-        delete m.rmsea;
-        delete m.rmseaLo;
-        delete m.rmseaHi;
-        delete m.cfi;
-        delete m.tli;
+        m.p = undefined;
+        m.rmsea = undefined;
+        m.rmseaLo = undefined;
+        m.rmseaHi = undefined;
+        m.cfi = undefined;
+        m.tli = undefined;
       }
-      delete c.dCfi;
-      delete c.dRmsea;
-      delete c.invarianceClaimed;
-      delete a.loglikScaling;
+      c.dCfi = undefined;
+      c.dRmsea = undefined;
+      c.invarianceClaimed = undefined;
+      a.loglikScaling = undefined;
       return true;
     }
     case "model-p-mismatch": {
@@ -408,8 +430,8 @@ function plant(kind: PlantedError, c: ComparisonInput, s: Scenario, random: Rand
       // Beyond every convention the engine accepts (ML and scaled χ², with and without √G).
       const highest = Math.max(rmseaOf(s.b.chisq, s.b.df, s.n - 1, s.groups), rmseaOf(s.b.chisq / s.b.scaling, s.b.df, s.n - 1, s.groups));
       b.rmsea = fixed(highest + 0.05 + 0.5 * highest, 3);
-      delete c.dRmsea;
-      delete c.invarianceClaimed;
+      c.dRmsea = undefined;
+      c.invarianceClaimed = undefined;
       return true;
     }
     case "rmsea-interval-mismatch":
@@ -425,8 +447,8 @@ function plant(kind: PlantedError, c: ComparisonInput, s: Scenario, random: Rand
       const lowest = Math.min(...readings);
       if (lowest < 0.3) return false;
       a[key] = fixed(lowest - 0.06, 3);
-      delete c.dCfi;
-      delete c.invarianceClaimed;
+      c.dCfi = undefined;
+      c.invarianceClaimed = undefined;
       return true;
     }
     case "df-recount-mismatch":
@@ -436,8 +458,8 @@ function plant(kind: PlantedError, c: ComparisonInput, s: Scenario, random: Rand
     case "information-criteria-inconsistent":
       if (a.aic === undefined || b.aic === undefined) return false;
       a.aic = fixed(Number(a.aic) + pick(random, [10, -10, 90, -90]), k);
-      delete c.dAic;
-      delete c.preferred;
+      c.dAic = undefined;
+      c.preferred = undefined;
       return true;
     case "preferred-model-contradicts-criteria": {
       if (c.method !== "ic" || a.aic === undefined || b.aic === undefined) return false;
@@ -475,11 +497,11 @@ function plant(kind: PlantedError, c: ComparisonInput, s: Scenario, random: Rand
       if (s.robust) return false;
       b.df = "0";
       b.chisq = "0.00";
-      for (const key of ["p", "rmsea", "rmseaLo", "rmseaHi", "cfi", "tli", "npar", "aic", "bic", "loglik"] as const) delete b[key];
-      delete c.dDf;
-      delete c.dCfi;
-      delete c.dRmsea;
-      delete c.invarianceClaimed;
+      for (const key of ["p", "rmsea", "rmseaLo", "rmseaHi", "cfi", "tli", "npar", "aic", "bic", "loglik"] as const) b[key] = undefined;
+      c.dDf = undefined;
+      c.dCfi = undefined;
+      c.dRmsea = undefined;
+      c.invarianceClaimed = undefined;
       if (c.dChisq !== undefined) {
         c.dChisq = a.chisq;
         c.dP = a.p;
@@ -487,32 +509,32 @@ function plant(kind: PlantedError, c: ComparisonInput, s: Scenario, random: Rand
       return true;
     case "negative-df":
       a.df = String(-integer(random, 1, 5));
-      for (const key of ["npar", "aic", "bic", "loglik", "p", "rmsea", "rmseaLo", "rmseaHi"] as const) delete a[key];
-      delete c.dDf;
-      delete c.dP;
-      delete c.dChisq;
-      delete c.dRmsea;
-      delete c.invarianceClaimed;
+      for (const key of ["npar", "aic", "bic", "loglik", "p", "rmsea", "rmseaLo", "rmseaHi"] as const) a[key] = undefined;
+      c.dDf = undefined;
+      c.dP = undefined;
+      c.dChisq = undefined;
+      c.dRmsea = undefined;
+      c.invarianceClaimed = undefined;
       return true;
     case "zero-df-difference":
       if (c.method === "ic") return false;
       c.dDf = "0";
       b.df = a.df;
-      for (const key of ["p", "rmsea", "rmseaLo", "rmseaHi", "npar", "aic", "bic", "cfi", "tli"] as const) delete b[key];
-      delete c.dP;
-      delete c.dCfi;
-      delete c.dRmsea;
-      delete c.invarianceClaimed;
+      for (const key of ["p", "rmsea", "rmseaLo", "rmseaHi", "npar", "aic", "bic", "cfi", "tli"] as const) b[key] = undefined;
+      c.dP = undefined;
+      c.dCfi = undefined;
+      c.dRmsea = undefined;
+      c.invarianceClaimed = undefined;
       return true;
     case "negative-chisq-difference":
       if (s.robust || c.method === "ic") return false;
       [a.chisq, b.chisq] = [b.chisq, a.chisq];
-      for (const m of [a, b]) for (const key of ["p", "rmsea", "rmseaLo", "rmseaHi", "cfi", "tli", "aic", "bic", "loglik"] as const) delete m[key];
-      delete c.dChisq;
-      delete c.dP;
-      delete c.dRmsea;
-      delete c.dCfi;
-      delete c.invarianceClaimed;
+      for (const m of [a, b]) for (const key of ["p", "rmsea", "rmseaLo", "rmseaHi", "cfi", "tli", "aic", "bic", "loglik"] as const) m[key] = undefined;
+      c.dChisq = undefined;
+      c.dP = undefined;
+      c.dRmsea = undefined;
+      c.dCfi = undefined;
+      c.invarianceClaimed = undefined;
       return true;
   }
 }

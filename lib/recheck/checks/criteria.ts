@@ -17,13 +17,12 @@ interface Convention {
 /** AIC and BIC of one model against its log-likelihood and number of free parameters. */
 export function checkModelCriteria(m: ParsedModel, subject: "a" | "b", n: number | null, report: Report): void {
   if (m.aic === null && m.bic === null) return;
-  const name = modelName(subject, m.label);
   if (m.loglik === null || m.npar === null) {
-    report.skip("information-criteria-inconsistent", subject, `${name}: AIC/BIC from the log-likelihood need loglik and npar`);
+    report.skip("information-criteria-inconsistent", subject, "AIC/BIC from the log-likelihood need loglik and npar");
     return;
   }
   if (!isMlFamily(m.estimator)) {
-    report.skip("information-criteria-inconsistent", subject, `${name}: estimator ${m.estimator} is not maximum likelihood`);
+    report.skip("information-criteria-inconsistent", subject, "the estimator is not maximum likelihood");
     return;
   }
   const ll = m.loglik;
@@ -34,26 +33,29 @@ export function checkModelCriteria(m: ParsedModel, subject: "a" | "b", n: number
     // when any convention reproduces it.
     if (m.chisq !== null) conventions.push({ name: "χ² + 2q", value: { lo: m.chisq.lo + 2 * q, hi: m.chisq.hi + 2 * q } });
     if (m.chisq !== null && m.df !== null) conventions.push({ name: "χ² − 2df", value: { lo: m.chisq.lo - 2 * m.df, hi: m.chisq.hi - 2 * m.df } });
-    judgeCriterion(report, subject, `${name}: reported AIC = ${m.aic.text}, but −2·(${ll.text}) + 2·${q}`, m.aic, conventions, `${subject}.aicFromLoglik`);
+    const aic = m.aic;
+    judgeCriterion(report, subject, () => `${modelName(subject, m.label)}: reported AIC = ${aic.text}, but −2·(${ll.text}) + 2·${q}`, aic, conventions, subject === "a" ? "a.aicFromLoglik" : "b.aicFromLoglik");
   }
   if (m.bic !== null) {
     if (n === null) {
-      report.skip("information-criteria-inconsistent", subject, `${name}: BIC needs N`);
+      report.skip("information-criteria-inconsistent", subject, "BIC needs N");
       return;
     }
     const lnN = Math.log(n);
     const conventions: Convention[] = [{ name: "−2LL + q·ln N", value: { lo: -2 * ll.hi + q * lnN, hi: -2 * ll.lo + q * lnN } }];
     if (m.chisq !== null) conventions.push({ name: "χ² + q·ln N", value: { lo: m.chisq.lo + q * lnN, hi: m.chisq.hi + q * lnN } });
     if (m.chisq !== null && m.df !== null) conventions.push({ name: "χ² − df·ln N", value: { lo: m.chisq.lo - m.df * lnN, hi: m.chisq.hi - m.df * lnN } });
-    judgeCriterion(report, subject, `${name}: reported BIC = ${m.bic.text}, but −2·(${ll.text}) + ${q}·ln ${n}`, m.bic, conventions, `${subject}.bicFromLoglik`);
+    const bic = m.bic;
+    judgeCriterion(report, subject, () => `${modelName(subject, m.label)}: reported BIC = ${bic.text}, but −2·(${ll.text}) + ${q}·ln ${n}`, bic, conventions, subject === "a" ? "a.bicFromLoglik" : "b.bicFromLoglik");
   }
 }
 
-function judgeCriterion(report: Report, subject: "a" | "b" | "comparison", lead: string, printed: PrintedNumber, conventions: Convention[], key: string): void {
+/** `lead` builds the message only when there is a finding. */
+function judgeCriterion(report: Report, subject: "a" | "b" | "comparison", lead: () => string, printed: PrintedNumber, conventions: Convention[], key: string): void {
   report.set(key, conventions[0].value);
   for (const c of conventions) if (meets(printed.lo, printed.hi, c.value.lo, c.value.hi)) return;
   const others = conventions.length > 1 ? `; nor does ${conventions.slice(1).map((c) => `${c.name} = ${showInterval(c.value.lo, c.value.hi, 2)}`).join(" or ")}` : "";
-  report.add("information-criteria-inconsistent", subject, `${lead} = ${showInterval(conventions[0].value.lo, conventions[0].value.hi, 2)}${others}`, {
+  report.add("information-criteria-inconsistent", subject, `${lead()} = ${showInterval(conventions[0].value.lo, conventions[0].value.hi, 2)}${others}`, {
     reported: printed.text,
     recomputed: conventions[0].value,
   });
@@ -73,43 +75,64 @@ export function checkCriteriaArithmetic(c: ParsedComparison, a: ParsedModel, b: 
     const reason = !mlBoth ? "needs both models fitted by maximum likelihood" : "needs both models' χ² and df";
     report.skip("information-criteria-inconsistent", "comparison", `ΔAIC/ΔBIC against Δχ²: ${reason}`);
   }
-  const chiText = dChisq ? `Δχ² = ${showInterval(dChisq.lo, dChisq.hi, 2)}` : "";
-
-  const criterion = (label: "AIC" | "BIC", pa: PrintedNumber | null, pb: PrintedNumber | null, printedDelta: PrintedNumber | null, penalty: number, penaltyText: string) => {
-    const expected = usable && dChisq ? { lo: dChisq.lo - penalty, hi: dChisq.hi - penalty } : null;
-    if (expected) report.set(`d${label === "AIC" ? "Aic" : "Bic"}`, expected);
-    if (pa !== null && pb !== null) {
-      const pair = differenceOf(pa, pb);
-      if (expected && !meets(pair.lo, pair.hi, expected.lo, expected.hi)) {
-        report.add(
-          "information-criteria-inconsistent",
-          "comparison",
-          `${label}_A − ${label}_B = ${pa.text} − ${pb.text} = ${showInterval(pair.lo, pair.hi, 2)}, but ${chiText} − ${penaltyText} = ${showInterval(expected.lo, expected.hi, 2)}`,
-          { reported: showInterval(pair.lo, pair.hi, 2), recomputed: expected, criterion: label },
-        );
-      }
-      if (printedDelta !== null && !meets(printedDelta.lo, printedDelta.hi, pair.lo, pair.hi)) {
-        report.add(
-          "information-criteria-inconsistent",
-          "comparison",
-          `reported Δ${label} = ${printedDelta.text}, but ${pa.text} − ${pb.text} = ${showInterval(pair.lo, pair.hi, 2)}`,
-          { reported: printedDelta.text, recomputed: pair, criterion: label },
-        );
-      }
-    } else if (printedDelta !== null && expected && !meets(printedDelta.lo, printedDelta.hi, expected.lo, expected.hi)) {
-      report.add(
-        "information-criteria-inconsistent",
-        "comparison",
-        `reported Δ${label} = ${printedDelta.text}, but ${chiText} − ${penaltyText} = ${showInterval(expected.lo, expected.hi, 2)}`,
-        { reported: printedDelta.text, recomputed: expected, criterion: label },
-      );
-    }
-  };
-  if (hasAic) criterion("AIC", a.aic, b.aic, c.dAic, 2 * dDf, `2·${dDf}`);
+  const ctx: CriterionContext = { report, dChisq: usable ? dChisq : null };
+  if (hasAic) checkCriterion(ctx, "AIC", a.aic, b.aic, c.dAic, 2 * dDf, 2, String(dDf));
   if (hasBic) {
     const n = c.sample.n;
     if (n === null) report.skip("information-criteria-inconsistent", "comparison", "ΔBIC needs N");
-    else criterion("BIC", a.bic, b.bic, c.dBic, dDf * Math.log(n), `${dDf}·ln ${n}`);
+    else checkCriterion(ctx, "BIC", a.bic, b.bic, c.dBic, dDf * Math.log(n), dDf, `ln ${n}`);
+  }
+}
+
+interface CriterionContext {
+  report: Report;
+  /** Δχ² (restricted − free) when both models are ML fits with χ² and df */
+  dChisq: Interval | null;
+}
+
+function chiText(dChisq: Interval | null): string {
+  return dChisq ? `Δχ² = ${showInterval(dChisq.lo, dChisq.hi, 2)}` : "";
+}
+
+/** One criterion: the printed pair and Δ against Δχ² − penalty, and the printed Δ against the pair. */
+function checkCriterion(
+  ctx: CriterionContext,
+  label: "AIC" | "BIC",
+  pa: PrintedNumber | null,
+  pb: PrintedNumber | null,
+  printedDelta: PrintedNumber | null,
+  penalty: number,
+  penaltyFactor: number,
+  penaltyUnit: string,
+): void {
+  const { report, dChisq } = ctx;
+  const expected = dChisq ? { lo: dChisq.lo - penalty, hi: dChisq.hi - penalty } : null;
+  if (expected) report.set(label === "AIC" ? "dAic" : "dBic", expected);
+  if (pa !== null && pb !== null) {
+    const pair = differenceOf(pa, pb);
+    if (expected && !meets(pair.lo, pair.hi, expected.lo, expected.hi)) {
+      report.add(
+        "information-criteria-inconsistent",
+        "comparison",
+        `${label}_A − ${label}_B = ${pa.text} − ${pb.text} = ${showInterval(pair.lo, pair.hi, 2)}, but ${chiText(dChisq)} − ${penaltyFactor}·${penaltyUnit} = ${showInterval(expected.lo, expected.hi, 2)}`,
+        { reported: showInterval(pair.lo, pair.hi, 2), recomputed: expected, criterion: label },
+      );
+    }
+    if (printedDelta !== null && !meets(printedDelta.lo, printedDelta.hi, pair.lo, pair.hi)) {
+      report.add(
+        "information-criteria-inconsistent",
+        "comparison",
+        `reported Δ${label} = ${printedDelta.text}, but ${pa.text} − ${pb.text} = ${showInterval(pair.lo, pair.hi, 2)}`,
+        { reported: printedDelta.text, recomputed: pair, criterion: label },
+      );
+    }
+  } else if (printedDelta !== null && expected && !meets(printedDelta.lo, printedDelta.hi, expected.lo, expected.hi)) {
+    report.add(
+      "information-criteria-inconsistent",
+      "comparison",
+      `reported Δ${label} = ${printedDelta.text}, but ${chiText(dChisq)} − ${penaltyFactor}·${penaltyUnit} = ${showInterval(expected.lo, expected.hi, 2)}`,
+      { reported: printedDelta.text, recomputed: expected, criterion: label },
+    );
   }
 }
 

@@ -12,6 +12,8 @@ import { pText } from "./model";
 import { chisqForm, loglikForm, sbApplies, type ScaledForm } from "./scaled";
 
 const TEST_METHODS = new Set(["lrt", "scaled_lrt", "invariance"]);
+const SB_KEYS = { cd: "sb2001.cd", statistic: "sb2001.statistic", p: "sb2001.p" };
+const SB_LOGLIK_KEYS = { cd: "sb2001Loglik.cd", statistic: "sb2001Loglik.statistic", p: "sb2001Loglik.p" };
 
 /** Δdf checks; returns the df of the difference test (models' df first, else the printed Δdf) or null. */
 export function checkDfDifference(c: ParsedComparison, a: ParsedModel, b: ParsedModel, report: Report): number | null {
@@ -143,14 +145,15 @@ export function checkScaledDifference(ctx: DifferenceContext): void {
   } else {
     reasons.push("the Satorra–Bentler 2001 difference applies to MLR/MLM; MLMV, WLSMV and ULSMV differences (e.g. DIFFTEST) need output papers do not print");
   }
-  const key = (form: ScaledForm) => (form.name === "chi-square form" ? "sb2001" : "sb2001Loglik");
-  const formP = forms.map((form) => (testDf === null ? null : upperTailInterval(form.statistic, testDf)));
-  forms.forEach((form, i) => {
-    report.set(`${key(form)}.cd`, form.cd);
-    report.set(`${key(form)}.statistic`, form.statistic);
-    const p = formP[i];
-    if (p !== null) report.set(`${key(form)}.p`, p);
-  });
+  const formP: Array<Interval | null> = [];
+  for (const form of forms) {
+    const p = testDf === null ? null : upperTailInterval(form.statistic, testDf);
+    formP.push(p);
+    const keys = form.name === "chi-square form" ? SB_KEYS : SB_LOGLIK_KEYS;
+    report.set(keys.cd, form.cd);
+    report.set(keys.statistic, form.statistic);
+    if (p !== null) report.set(keys.p, p);
+  }
   if (forms.length === 0 && negatives.length > 0) {
     report.add(
       "negative-scaling-correction",
@@ -165,7 +168,6 @@ export function checkScaledDifference(ctx: DifferenceContext): void {
   const plain = a.chisq !== null && b.chisq !== null ? differenceOf(a.chisq, b.chisq) : null;
   if (plain !== null) report.set("dChisq", plain);
 
-  const formsText = forms.map((form) => `${showInterval(form.statistic.lo, form.statistic.hi, 2)} (${form.name}, cd = ${show(form.cdValue, 4)})`).join(" or ");
 
   if (c.dChisq !== null) {
     const d = c.dChisq;
@@ -176,7 +178,7 @@ export function checkScaledDifference(ctx: DifferenceContext): void {
       report.add(
         "unscaled-robust-difference",
         "comparison",
-        `reported Δχ² = ${d.text} equals the plain difference of the scaled χ² (${a.chisqScaled?.text} − ${b.chisqScaled?.text} = ${showInterval(naive.lo, naive.hi, 2)}), which is not chi-square distributed${forms.length > 0 ? `; the scaled difference is ${formsText}` : ""}`,
+        `reported Δχ² = ${d.text} equals the plain difference of the scaled χ² (${a.chisqScaled?.text} − ${b.chisqScaled?.text} = ${showInterval(naive.lo, naive.hi, 2)}), which is not chi-square distributed${forms.length > 0 ? `; the scaled difference is ${describeForms(forms)}` : ""}`,
         { reported: d.text, naiveDifference: naive, ...(forms.length > 0 ? { scaledDifference: forms[0].statistic } : {}) },
       );
     } else if (c.method === "lrt" && plain !== null && meets(d.lo, d.hi, plain.lo, plain.hi)) {
@@ -187,7 +189,7 @@ export function checkScaledDifference(ctx: DifferenceContext): void {
       report.add(
         "scaled-difference-mismatch",
         "comparison",
-        `reported scaled Δχ² = ${d.text}, but the Satorra–Bentler (2001) difference is ${formsText}${changed ? `; the conclusion at α = ${c.alpha} changes` : ""}`,
+        `reported scaled Δχ² = ${d.text}, but the Satorra–Bentler (2001) difference is ${describeForms(forms)}${changed ? `; the conclusion at α = ${c.alpha} changes` : ""}`,
         { reported: d.text, recomputed: forms[0].statistic, cd: forms[0].cd },
         changed ? "error" : "warning",
       );
@@ -228,6 +230,10 @@ export function checkScaledDifference(ctx: DifferenceContext): void {
     { reported: printedP.text, recomputed: formP[0] ?? { lo: 0, hi: 1 }, df: testDf },
     changed ? "error" : "warning",
   );
+}
+
+function describeForms(forms: ScaledForm[]): string {
+  return forms.map((form) => `${showInterval(form.statistic.lo, form.statistic.hi, 2)} (${form.name}, cd = ${show(form.cdValue, 4)})`).join(" or ");
 }
 
 /**

@@ -44,8 +44,8 @@ export function checkFitIndices(m: ParsedModel, subject: "a" | "b", report: Repo
   const name = modelName(subject, m.label);
   if (m.cfi === null && m.tli === null) return;
   if (m.baselineChisq === null || m.baselineDf === null || m.df === null || m.df <= 0) {
-    if (m.cfi !== null) report.skip("cfi-mismatch", subject, `${name}: needs the baseline χ² and df`);
-    if (m.tli !== null) report.skip("tli-mismatch", subject, `${name}: needs the baseline χ² and df`);
+    if (m.cfi !== null) report.skip("cfi-mismatch", subject, "needs the baseline χ² and df");
+    if (m.tli !== null) report.skip("tli-mismatch", subject, "needs the baseline χ² and df");
     return;
   }
   // The printed index may come from the ML χ² or, for robust estimators, from the scaled χ² (with the
@@ -55,8 +55,8 @@ export function checkFitIndices(m: ParsedModel, subject: "a" | "b", report: Repo
   const scaled = m.robust ? scaledStatistic(m) : null;
   if (scaled !== null) stats.push([scaled.interval, scaled.source === "printed" ? (m.chisqScaled?.text ?? "") : showInterval(scaled.interval.lo, scaled.interval.hi, 2)]);
   if (stats.length === 0) {
-    if (m.cfi !== null) report.skip("cfi-mismatch", subject, `${name}: no χ² printed`);
-    if (m.tli !== null) report.skip("tli-mismatch", subject, `${name}: no χ² printed`);
+    if (m.cfi !== null) report.skip("cfi-mismatch", subject, "no χ² printed");
+    if (m.tli !== null) report.skip("tli-mismatch", subject, "no χ² printed");
     return;
   }
   const df = m.df;
@@ -80,7 +80,7 @@ export function checkFitIndices(m: ParsedModel, subject: "a" | "b", report: Repo
     const candidates = stats.map(([stat]) => tliInterval(stat, df, baseline, baselineDf));
     const first = candidates[0];
     if (first === null) {
-      report.skip("tli-mismatch", subject, `${name}: baseline χ²/df is not above 1, so TLI is undefined at this precision`);
+      report.skip("tli-mismatch", subject, "baseline χ²/df is not above 1, so TLI is undefined at this precision");
       return;
     }
     report.set(`${subject}.tli`, first);

@@ -10,10 +10,16 @@
 // Checking a printed bound needs no root finding: F falls in λ and rises in χ², so the printed bound's
 // interval meets the recomputed one iff the CDF condition changes sign across it (two CDF evaluations).
 // Roots are only found, lazily, to report the recomputed interval when nothing matched.
-import { noncentralChisqCdf, noncentralityForCdf } from "../distributions/noncentral";
-import { meets, show, showInterval } from "../interval";
+import { noncentralChisqCdf as noncentralChisqCdfImport, noncentralityForCdf } from "../distributions/noncentral";
+import { meets as meetsImport, show, showInterval } from "../interval";
 import type { PrintedNumber } from "../printed";
 import type { Interval } from "../types";
+
+const meets = meetsImport;
+
+// Imported functions bound once: under tsx (CommonJS output, as the CLI runs) each call to an import
+// otherwise goes through an export getter, which showed up in the engine benchmark's profile.
+const noncentralChisqCdf = noncentralChisqCdfImport;
 
 /** One corner of the outer enclosure for the CI check: statistic x, its df, and λ = bound² · k. */
 interface Corner {
@@ -132,6 +138,27 @@ export function rmseaConventions(inputs: RmseaInputs): RmseaConvention[] {
   return conventions;
 }
 
+/**
+ * The most likely convention alone (scaled χ² for robust estimators when available, else ML χ²; N; ×√G
+ * for several groups), built without the full list so the common, consistent case stays cheap.
+ */
+export function primaryConvention(inputs: RmseaInputs): RmseaConvention | null {
+  const { n, groups, df } = inputs;
+  const useScaled = inputs.robust && inputs.scaled !== null;
+  const stat = useScaled ? inputs.scaled : inputs.chisq;
+  if (stat === null) return null;
+  const g = groups > 1 ? Math.sqrt(groups) : 1;
+  const k = (n * df) / groups;
+  const mid = useScaled ? (inputs.scaledValue ?? stat.lo) : (inputs.chisqValue ?? stat.lo);
+  return {
+    name: useScaled ? (groups > 1 ? "scaled χ², N, ×√G" : "scaled χ², N") : groups > 1 ? "ML χ², N, ×√G" : "ML χ², N",
+    point: { lo: rmseaOf(stat.lo, df, n, g), hi: rmseaOf(stat.hi, df, n, g) },
+    high: { x: stat.hi, df, k },
+    low: { x: stat.lo, df, k },
+    mid: { x: mid, df, k },
+  };
+}
+
 /** Index of the first convention whose point interval meets the printed RMSEA, or −1. */
 export function matchRmseaPoint(printed: PrintedNumber, conventions: RmseaConvention[]): number {
   for (let i = 0; i < conventions.length; i++) {
@@ -165,11 +192,14 @@ export function matchRmseaInterval(
   conventions: RmseaConvention[],
   first: number,
 ): number {
-  const tryOne = (i: number) =>
-    (lower === null || boundMeets(lower, 0.95, conventions[i])) && (upper === null || boundMeets(upper, 0.05, conventions[i]));
-  if (first >= 0 && tryOne(first)) return first;
-  for (let i = 0; i < conventions.length; i++) if (i !== first && tryOne(i)) return i;
+  if (first >= 0 && intervalMeets(lower, upper, conventions[first])) return first;
+  for (let i = 0; i < conventions.length; i++) if (i !== first && intervalMeets(lower, upper, conventions[i])) return i;
   return -1;
+}
+
+/** Both printed bounds (where printed) are reproduced under this convention. */
+export function intervalMeets(lower: PrintedNumber | null, upper: PrintedNumber | null, convention: RmseaConvention): boolean {
+  return (lower === null || boundMeets(lower, 0.95, convention)) && (upper === null || boundMeets(upper, 0.05, convention));
 }
 
 /** The recomputed 90 % interval at the convention's central values (root finding: only on mismatch). */
