@@ -14,7 +14,7 @@
 import { spawn } from "node:child_process";
 import { once } from "node:events";
 import { createReadStream, createWriteStream, mkdtempSync, readFileSync, rmSync, statSync } from "node:fs";
-import { tmpdir } from "node:os";
+import { availableParallelism, loadavg, tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { checkSheetRow, readSheetBatches, sheetHeaderLine, sheetRecordLine, toComparisonInput, type SheetRecord } from "@/lib/csv";
@@ -171,6 +171,9 @@ async function main(): Promise<void> {
     const size = statSync(file).size;
     console.log(`sheet: ${rows} rows, ${(size / 1e6).toFixed(1)} MB, written in ${((performance.now() - t0) / 1000).toFixed(1)} s`);
 
+    // Other work on the machine inflates every figure below: say how busy it was.
+    const load = () => loadavg()[0].toFixed(1);
+    console.log(`machine: ${availableParallelism()} cores, load average ${load()} (1 min) before the runs`);
     const startup = await runCli(["--help"]);
     console.log(`tsx start-up alone (--help): ${startup.seconds.toFixed(2)} s, ${mb(startup.peakKb)} MB`);
     const read = await coldPass(file, false);
@@ -202,6 +205,7 @@ async function main(): Promise<void> {
           `output ${runs[0].outputLines} lines, ${(runs[0].outputBytes / 1e6).toFixed(1)} MB`,
       );
     }
+    console.log(`load average ${load()} (1 min) after the runs`);
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }
