@@ -1,0 +1,81 @@
+// The authorization matrix: who may call each API route handler and each server action. One row per
+// exported HTTP method of every app/api/**/route.ts and per export of every app/**/actions.ts.
+// tests/integration/authorization-matrix.test.ts walks those files and fails when a handler has no row
+// here, a row names nothing, or a handler does not answer each kind of caller as its row says.
+//
+// A feature that adds a route or an action adds its row here. `access` is the least role allowed
+// ("public": anyone, signed in or not). A public handler without the guard's mark must say why in
+// `unguarded`. Probes are sent by every kind of caller, so choose ones that change nothing: an empty
+// body is refused by validation, which the guard only reaches after the session and role checks.
+
+import type { Access } from "@/lib/auth/guard";
+
+export type HttpMethod = "GET" | "HEAD" | "POST" | "PUT" | "PATCH" | "DELETE" | "OPTIONS";
+export const HTTP_METHODS: HttpMethod[] = ["GET", "HEAD", "POST", "PUT", "PATCH", "DELETE", "OPTIONS"];
+
+export const CALLERS = ["anonymous", "reader", "contributor", "curator", "admin", "suspended"] as const;
+export type Caller = (typeof CALLERS)[number];
+
+export interface RouteRow {
+  /** the route file, relative to app/api */
+  file: string;
+  method: HttpMethod;
+  access: Access;
+  /** a concrete address for the probe request, with its dynamic segment values */
+  path: string;
+  params?: Record<string, string | string[]>;
+  /** JSON body of the probe (default: none) */
+  body?: unknown;
+  /** for a public handler that does not go through the guard: why that is safe */
+  unguarded?: string;
+}
+
+export interface ActionRow {
+  /** the actions file, relative to app */
+  file: string;
+  /** the exported action */
+  name: string;
+  access: Access;
+}
+
+const CATCH_ALL = "answers a JSON 404 for API addresses without a handler; reads and writes nothing";
+
+export const ROUTE_MATRIX: RouteRow[] = [
+  { file: "health/route.ts", method: "GET", access: "public", path: "/api/health", unguarded: "liveness probe; read-only" },
+  { file: "recheck/route.ts", method: "POST", access: "public", path: "/api/recheck", body: {}, unguarded: "stateless recheck of the posted numbers; touches no stored data" },
+  ...(["GET", "POST", "PUT", "PATCH", "DELETE"] as const).map(
+    (method): RouteRow => ({ file: "[...path]/route.ts", method, access: "public", path: "/api/no-such-endpoint", params: { path: ["no-such-endpoint"] }, unguarded: CATCH_ALL }),
+  ),
+  {
+    file: "auth/[...nextauth]/route.ts",
+    method: "GET",
+    access: "public",
+    path: "/api/auth/csrf",
+    params: { nextauth: ["csrf"] },
+    unguarded: "next-auth's own endpoints (CSRF token, session); each checks what it needs",
+  },
+  {
+    file: "auth/[...nextauth]/route.ts",
+    method: "POST",
+    access: "public",
+    path: "/api/auth/callback/credentials",
+    params: { nextauth: ["callback", "credentials"] },
+    unguarded: "the sign-in itself: CSRF token and password checked by next-auth, rate-limited in front",
+  },
+  { file: "account/apply/route.ts", method: "POST", access: "public", path: "/api/account/apply", body: {} },
+  { file: "account/password-reset/route.ts", method: "POST", access: "public", path: "/api/account/password-reset", body: {} },
+];
+
+export const ACTION_MATRIX: ActionRow[] = [
+  { file: "(auth)/actions.ts", name: "submitApplication", access: "public" },
+  { file: "(auth)/actions.ts", name: "requestResetLink", access: "public" },
+  { file: "(auth)/actions.ts", name: "setPasswordFromLink", access: "public" },
+  { file: "(account)/account/actions.ts", name: "saveProfile", access: "reader" },
+  { file: "(account)/account/actions.ts", name: "changeOwnPassword", access: "reader" },
+  { file: "(admin)/admin/people/actions.ts", name: "approveApplicant", access: "admin" },
+  { file: "(admin)/admin/people/actions.ts", name: "declineApplicant", access: "admin" },
+  { file: "(admin)/admin/people/actions.ts", name: "suspendAccount", access: "admin" },
+  { file: "(admin)/admin/people/actions.ts", name: "reactivateAccount", access: "admin" },
+  { file: "(admin)/admin/people/actions.ts", name: "changeAccountRole", access: "admin" },
+  { file: "(admin)/admin/outbox/actions.ts", name: "retryOutboxMessage", access: "admin" },
+];
