@@ -1,13 +1,16 @@
 import { CautionNotice } from "@/components/caution-notice";
+import { SeverityBadge } from "@/components/severity-badge";
 import { StatTile } from "@/components/stat-tile";
-import { readCorpusFigures } from "@/lib/db/queries/corpus";
+import { readCorpusFigures, readFrequentFindings } from "@/lib/db/queries/corpus";
+import { FINDING_CATALOGUE, type FindingCode } from "@/lib/recheck";
+import type { Severity } from "@/lib/recheck/types";
 import { formatCount, formatShare } from "@/lib/format";
 
 // Figures are read from the database on every request; nothing here may be prerendered at build time.
 export const dynamic = "force-dynamic";
 
 export default async function LandingPage() {
-  const figures = await readCorpusFigures();
+  const [figures, frequent] = await Promise.all([readCorpusFigures(), readFrequentFindings({ limit: 8 })]);
   return (
     <div className="space-y-8">
       <section className="max-w-3xl space-y-3">
@@ -38,6 +41,44 @@ export default async function LandingPage() {
             detail={`${formatCount(figures.flaggedComparisons)} with an error or warning finding`}
           />
         </dl>
+      </section>
+
+      <section aria-labelledby="frequent-findings" className="max-w-3xl">
+        <h2 id="frequent-findings" className="mb-3 text-xs font-medium uppercase tracking-wide text-ink-faint">
+          Most frequent findings in verified entries
+        </h2>
+        {frequent.length === 0 ? (
+          <p className="rounded border border-rule bg-paper-raised p-4 text-ink-soft">No verified entry has a finding yet.</p>
+        ) : (
+          <table className="w-full border-collapse text-left">
+            <thead>
+              <tr className="border-b border-rule-strong text-xs text-ink-faint">
+                <th scope="col" className="py-1.5 pr-3 font-medium">Finding</th>
+                <th scope="col" className="py-1.5 pr-3 font-medium">Severity</th>
+                <th scope="col" className="py-1.5 text-right font-medium">Comparisons</th>
+                <th scope="col" className="py-1.5 text-right font-medium">Share</th>
+              </tr>
+            </thead>
+            <tbody>
+              {frequent.map((finding) => {
+                const entry = FINDING_CATALOGUE[finding.code as FindingCode];
+                return (
+                  <tr key={finding.code} className="border-b border-rule align-top">
+                    <td className="py-1.5 pr-3">
+                      <span className="font-medium">{entry?.title ?? finding.code}</span>
+                      <code className="ml-2 text-xxs text-ink-faint">{finding.code}</code>
+                    </td>
+                    <td className="py-1.5 pr-3">
+                      <SeverityBadge severity={finding.severity as Severity} />
+                    </td>
+                    <td className="py-1.5 text-right">{formatCount(finding.comparisons)}</td>
+                    <td className="py-1.5 text-right">{formatShare(finding.comparisons, figures.verifiedComparisons)}</td>
+                  </tr>
+                );
+              })}
+            </tbody>
+          </table>
+        )}
       </section>
 
       <CautionNotice />

@@ -33,3 +33,25 @@ export async function readCorpusFiguresFrom(models: Models): Promise<CorpusFigur
   ]);
   return { papers, verifiedPapers, verifiedComparisons, flaggedComparisons };
 }
+
+export interface FrequentFinding {
+  code: string;
+  severity: string;
+  /** verified comparisons raising this code */
+  comparisons: number;
+}
+
+/** The codes raised on most verified comparisons, for the landing page. */
+export async function readFrequentFindings({ limit }: { limit: number }): Promise<FrequentFinding[]> {
+  const { models, sequelize } = await db();
+  const rows = (await models.Flag.findAll({
+    attributes: ["code", "severity", [sequelize.fn("COUNT", sequelize.fn("DISTINCT", sequelize.col("comparison_id"))), "comparisons"]],
+    where: { comparisonId: { [Op.ne]: null } },
+    include: [{ model: models.Paper, as: "paper", attributes: [], where: { state: "verified" }, required: true }],
+    group: ["code", "severity"],
+    order: [[sequelize.literal("comparisons"), "DESC"], ["code", "ASC"]],
+    limit,
+    raw: true,
+  })) as unknown as { code: string; severity: string; comparisons: number | string }[];
+  return rows.map((row) => ({ code: row.code, severity: row.severity, comparisons: Number(row.comparisons) }));
+}
