@@ -19,7 +19,7 @@ export type SheetComparison = Omit<ComparisonInput, "sample" | "restricted" | "f
   notes?: string;
 };
 
-/** One sheet row's content, every cell as text; an empty cell is an absent key. */
+/** One sheet row's content, every cell as text; an empty cell is undefined (absent or an undefined field). */
 export interface SheetRecord {
   paper: SheetPaper;
   sample: SampleInput;

@@ -3,6 +3,7 @@ import type { ComparisonInput, FieldError } from "@/lib/recheck/types";
 import {
   DEFAULT_GROUP_COUNT,
   DEFAULT_SAMPLE_LABEL,
+  SHEET_COLUMNS,
   type ColumnPart,
   type SheetRecord,
   type SheetRow,
@@ -34,13 +35,35 @@ export function recordPart(record: SheetRecord, part: ColumnPart): TextFields {
   }
 }
 
+/** Every field of a part, undefined, in catalogue order (the a_ and b_ columns share one order). */
+function template(part: ColumnPart): Readonly<TextFields> {
+  return Object.fromEntries(SHEET_COLUMNS.filter((c) => c.part === part).map((c) => [c.key, undefined]));
+}
+
+// Rows are built by copying these, so every paper, sample, comparison and model object has the same keys
+// in the same order whichever cells a sheet fills: the engine's property reads then meet one object
+// shape, not one per combination of columns (measured: see tests/bench/recheck-cli.ts).
+const PAPER = template("paper");
+const SAMPLE = template("sample");
+const COMPARISON = template("comparison");
+const MODEL = template("a");
+
 /**
- * Builds a row from its cells. Cells stay text exactly as printed, except that the writer's formula
- * escape is removed, a valid DOI is normalised, and the §5 defaults fill an empty sample label and group
- * count. Cells beyond the header (a row with too many cells) are not read; `problems` says why.
+ * Builds a row from its cells; an empty cell is an undefined field. Cells stay text exactly as printed,
+ * except that the writer's formula escape is removed, a valid DOI is normalised, and the §5 defaults fill
+ * an empty sample label and group count. Cells beyond the header (a row with too many cells) are not
+ * read; `problems` says why.
  */
 export function buildRow(layout: SheetLayout, cells: readonly string[], row: number, problems: readonly FieldError[]): SheetRow {
-  const sheetRow: SheetRow = { row, problems, paper: {}, sample: {}, comparison: {}, restricted: {}, free: {} };
+  const sheetRow: SheetRow = {
+    row,
+    problems,
+    paper: { ...PAPER },
+    sample: { ...SAMPLE },
+    comparison: { ...COMPARISON },
+    restricted: { ...MODEL },
+    free: { ...MODEL },
+  };
   // in PART_ORDER; one array per row instead of a switch per cell (this loop runs for every cell of the file)
   const parts = [sheetRow.paper, sheetRow.sample, sheetRow.comparison, sheetRow.restricted, sheetRow.free] as TextFields[];
   const { partSlots, keys } = layout;
