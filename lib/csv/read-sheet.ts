@@ -22,6 +22,13 @@ const NO_PROBLEMS: readonly FieldError[] = Object.freeze([]);
 /** A header line longer than this without a line break is not a comparison sheet's header. */
 const MAX_HEADER_CHARS = 1 << 20;
 
+/**
+ * A record still unfinished after this much text is a quote that never closes: everything after it would
+ * be read into one cell, and re-parsed from its start with every chunk (quadratic time). A comparison row
+ * is a few hundred bytes to a few kilobytes.
+ */
+const MAX_RECORD_CHARS = 1 << 20;
+
 interface ParserResult {
   data: string[][];
   errors: Papa.ParseError[];
@@ -58,8 +65,10 @@ export class SheetParser {
   private layout: SheetLayout | undefined;
   /** data records seen so far, blank ones included (the row number of the last record) */
   private records = 0;
+  private refusal: SheetError | undefined;
 
   push(text: string, final: boolean): SheetRow[] {
+    if (this.refusal) throw this.refusal;
     this.pending = this.pending === "" ? text : this.pending + text;
     if (!this.parser && !this.start(final)) return [];
     const result = this.parser!.parse(this.pending, 0, !final) as ParserResult;
@@ -91,6 +100,11 @@ export class SheetParser {
       rows.push(buildRow(this.layout, cells, this.records, problems ?? NO_PROBLEMS));
     }
     if (final && !this.layout) throw new SheetError("empty_file", "the file is empty (no header row)");
+    if (this.pending.length > MAX_RECORD_CHARS) {
+      // refused at the next push, so that the rows completed in this one still reach the caller
+      const which = this.layout ? `row ${this.records + 1}` : "the header row";
+      this.refusal = new SheetError("record_too_long", `${which} runs on for more than 1 MB: probably a quoted cell that never closes`);
+    }
     return rows;
   }
 

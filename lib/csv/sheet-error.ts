@@ -8,7 +8,8 @@ export type SheetErrorCode =
   | "unknown_column"
   | "duplicate_column"
   | "missing_column"
-  | "unnamed_column";
+  | "unnamed_column"
+  | "record_too_long";
 
 export class SheetError extends Error {
   readonly code: SheetErrorCode;

@@ -1,8 +1,8 @@
 // The streaming sheet reader (DESIGN §5): cells stay text, the format variants it accepts, and the files
 // it refuses with a message naming the problem.
 import { describe, expect, it } from "vitest";
-import { WHOLE_ROW } from "@/lib/csv";
-import { MINIMAL_HEADER, readAll, refusal, utf8 } from "./sheet-input";
+import { SheetError, WHOLE_ROW, readSheet } from "@/lib/csv";
+import { MINIMAL_HEADER, inChunks, readAll, refusal, utf8 } from "./sheet-input";
 
 describe("cells are read as the text that was printed", () => {
   it("keeps 9.20, 0012, .000 and < .001 exactly as written, never as numbers", async () => {
@@ -193,6 +193,22 @@ describe("files refused as a whole", () => {
   it("refuses a header with an unnamed column", async () => {
     const error = await refusal(`${MINIMAL_HEADER},\n`);
     expect(error.message).toBe("header cell 6 is empty; every column needs a name");
+  });
+
+  it("refuses a sheet where a stray quote swallows more than 1 MB, after yielding the rows before it", async () => {
+    const good = "10.5555/t.1,C1,lrt,A,B\n";
+    const rest = "10.5555/t.3,C3,lrt,A,B\n".repeat(60_000); // 1.4 MB that would all fall into one cell
+    const rows: number[] = [];
+    const sheet = `${MINIMAL_HEADER}\n${good}10.5555/t.2,"C2,lrt,A,B\n${rest}`;
+    let refusal: unknown;
+    try {
+      for await (const row of readSheet(inChunks(utf8(sheet), 1 << 16))) rows.push(row.row);
+    } catch (error) {
+      refusal = error;
+    }
+    expect(rows).toEqual([1]);
+    expect(refusal).toBeInstanceOf(SheetError);
+    expect((refusal as SheetError).message).toBe("row 2 runs on for more than 1 MB: probably a quoted cell that never closes");
   });
 
   it("refuses a binary file, naming the NUL byte's offset", async () => {
