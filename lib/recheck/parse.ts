@@ -1,7 +1,7 @@
 // Turns the printed cells of one comparison into numbers with their rounding intervals, collecting a
 // FieldError (named by its DESIGN §5 sheet column) for every cell that cannot be read. Empty cells are
 // "not reported" (null), never zero.
-import { isBlank as isBlankImport, readPrintedInteger as readPrintedIntegerImport, readPrintedNumber as readPrintedNumberImport, readPrintedP as readPrintedPImport, type PrintedNumber, type PrintedP } from "./printed";
+import { isBlank as isBlankImport, readPrintedInteger as readPrintedIntegerImport, readPrintedNumber as readPrintedNumberImport, scanP as scanPImport, type PrintedNumber, type PrintedP } from "./printed";
 import {
   ESTIMATORS,
   INVARIANCE_CLAIMS,
@@ -25,7 +25,7 @@ import {
 const isBlank = isBlankImport;
 const readPrintedInteger = readPrintedIntegerImport;
 const readPrintedNumber = readPrintedNumberImport;
-const readPrintedP = readPrintedPImport;
+const scanP = scanPImport;
 
 export interface ParsedModel {
   label: string;
@@ -80,6 +80,11 @@ export interface ParsedComparison {
   free: ParsedModel;
 }
 
+/** Empty or missing cell; the whitespace scan only runs for cells that start with a space. */
+function blank(text: string | undefined): text is undefined {
+  return text === undefined || text === null || text.length === 0 || (text.charCodeAt(0) <= 32 && isBlank(text));
+}
+
 /** What a numeric cell may hold. */
 type NumberKind = "any" | "nonNegative" | "positive" | "unit";
 
@@ -91,7 +96,7 @@ const KIND_RULE: Record<NumberKind, string> = {
 };
 
 function readNumberCell(text: string | undefined, column: string, kind: NumberKind, errors: FieldError[]): PrintedNumber | null {
-  if (isBlank(text)) return null;
+  if (blank(text)) return null;
   const printed = readPrintedNumber(text);
   if (printed === null) {
     errors.push({ column, message: `"${text.trim()}" is not a number (use a decimal point and no thousands separators)` });
@@ -113,7 +118,7 @@ function readNumberCell(text: string | undefined, column: string, kind: NumberKi
 
 /** min: the smallest allowed integer (null = any sign, e.g. df, whose negative values are a finding). */
 function readIntegerCell(text: string | undefined, column: string, min: number | null, errors: FieldError[]): number | null {
-  if (isBlank(text)) return null;
+  if (blank(text)) return null;
   const value = readPrintedInteger(text);
   if (value === null) {
     const isNumber = readPrintedNumber(text) !== null;
@@ -128,13 +133,13 @@ function readIntegerCell(text: string | undefined, column: string, min: number |
 }
 
 function readPCell(text: string | undefined, column: string, alpha: number, errors: FieldError[]): PrintedP | null {
-  if (isBlank(text)) return null;
-  const result = readPrintedP(text, alpha);
-  if (!result.ok) {
-    errors.push({ column, message: result.message });
+  if (blank(text)) return null;
+  const result = scanP(text, alpha);
+  if (typeof result === "string") {
+    errors.push({ column, message: result });
     return null;
   }
-  return result.value;
+  return result;
 }
 
 /** A lookup table for a choice column: exact and lower-cased spellings (plus aliases) → value. */
@@ -154,7 +159,7 @@ function choices<T extends string>(values: readonly T[], aliases: Record<string,
 }
 
 function readChoiceCell<T extends string>(text: string | undefined, column: string, table: Choices<T>, errors: FieldError[]): T | null {
-  if (isBlank(text)) return null;
+  if (blank(text)) return null;
   const exact = table.map.get(text);
   if (exact !== undefined) return exact;
   const found = table.map.get(text.trim().toLowerCase());

@@ -42,23 +42,25 @@ function halfUnit(decimals: number): number {
   return decimals >= 0 && decimals < HALF_UNIT.length ? HALF_UNIT[decimals] : 0.5 * Math.pow(10, -decimals);
 }
 
-function isDigit(code: number): boolean {
-  return code >= 48 && code <= 57;
-}
-
 /**
  * Reads a printed decimal ("9.20", ".032", "-3.5", "−3.5" with a typographic minus, "2.1e-45") into its
  * value and rounding interval. Returns null for anything else (thousands separators, decimal commas and
  * words are rejected rather than guessed: "1,234" could be 1234 or 1.234).
  */
 export function readPrintedNumber(raw: string): PrintedNumber | null {
-  // trim() allocates; most cells need none.
-  const text = raw.length > 0 && raw.charCodeAt(0) > 32 && raw.charCodeAt(raw.length - 1) > 32 ? raw : raw.trim();
-  const length = text.length;
-  let i = 0;
+  let start = 0;
+  let end = raw.length;
+  while (start < end && raw.charCodeAt(start) <= 32) start++;
+  while (end > start && raw.charCodeAt(end - 1) <= 32) end--;
+  return scanNumber(raw, start, end);
+}
+
+/** The scanner behind readPrintedNumber, on raw[start, end) (no substring is made in the common case). */
+function scanNumber(raw: string, start: number, end: number): PrintedNumber | null {
+  let i = start;
   let negative = false;
-  if (i < length) {
-    const c = text.charCodeAt(i);
+  if (i < end) {
+    const c = raw.charCodeAt(i);
     if (c === 45 /* - */ || c === 0x2212 /* − */) {
       negative = true;
       i++;
@@ -69,53 +71,55 @@ export function readPrintedNumber(raw: string): PrintedNumber | null {
   let mantissa = 0;
   let digits = 0;
   let decimals = 0;
-  while (i < length && isDigit(text.charCodeAt(i))) {
-    mantissa = mantissa * 10 + (text.charCodeAt(i) - 48);
+  let c = i < end ? raw.charCodeAt(i) : 0;
+  while (c >= 48 && c <= 57) {
+    mantissa = mantissa * 10 + (c - 48);
     digits++;
-    i++;
+    c = ++i < end ? raw.charCodeAt(i) : 0;
   }
-  if (i < length && text.charCodeAt(i) === 46 /* . */) {
-    i++;
-    while (i < length && isDigit(text.charCodeAt(i))) {
-      mantissa = mantissa * 10 + (text.charCodeAt(i) - 48);
+  if (c === 46 /* . */) {
+    c = ++i < end ? raw.charCodeAt(i) : 0;
+    while (c >= 48 && c <= 57) {
+      mantissa = mantissa * 10 + (c - 48);
       digits++;
       decimals++;
-      i++;
+      c = ++i < end ? raw.charCodeAt(i) : 0;
     }
   }
   if (digits === 0) return null;
   let exponent = 0;
-  if (i < length && (text.charCodeAt(i) === 101 || text.charCodeAt(i) === 69) /* e E */) {
-    i++;
+  if (c === 101 || c === 69 /* e E */) {
+    c = ++i < end ? raw.charCodeAt(i) : 0;
     let expNegative = false;
-    if (i < length && (text.charCodeAt(i) === 45 || text.charCodeAt(i) === 43 || text.charCodeAt(i) === 0x2212)) {
-      expNegative = text.charCodeAt(i) !== 43;
-      i++;
+    if (c === 45 || c === 43 || c === 0x2212) {
+      expNegative = c !== 43;
+      c = ++i < end ? raw.charCodeAt(i) : 0;
     }
     let expDigits = 0;
-    while (i < length && isDigit(text.charCodeAt(i))) {
-      exponent = exponent * 10 + (text.charCodeAt(i) - 48);
+    while (c >= 48 && c <= 57) {
+      exponent = exponent * 10 + (c - 48);
       expDigits++;
-      i++;
+      c = ++i < end ? raw.charCodeAt(i) : 0;
     }
     if (expDigits === 0) return null;
     if (expNegative) exponent = -exponent;
   }
-  if (i !== length) return null;
+  if (i !== end) return null;
   // For up to 15 digits and no exponent, mantissa / 10^k is one correctly rounded IEEE division, i.e.
   // exactly what Number() returns; longer or exponent forms go through Number() itself.
   let value: number;
   if (digits <= 15 && exponent === 0 && decimals < POW10.length) {
     value = mantissa / POW10[decimals];
   } else {
-    const start = text.charCodeAt(0) === 45 || text.charCodeAt(0) === 43 || text.charCodeAt(0) === 0x2212 ? 1 : 0;
-    value = Number(text.slice(start).replace("\u2212", "-"));
+    const signed = raw.charCodeAt(start) === 45 || raw.charCodeAt(start) === 43 || raw.charCodeAt(start) === 0x2212;
+    value = Number(raw.slice(signed ? start + 1 : start, end).replace("\u2212", "-"));
   }
   if (negative) value = -value;
   if (!Number.isFinite(value)) return null;
   if (value === 0) value = 0; // no negative zero in outputs
   const effectiveDecimals = decimals - exponent;
   const half = halfUnit(effectiveDecimals);
+  const text = start === 0 && end === raw.length ? raw : raw.slice(start, end);
   return { text, value, lo: value - half, hi: value + half, decimals: effectiveDecimals };
 }
 
@@ -138,75 +142,78 @@ const NS_FORMS = new Set(["ns", "n.s.", "n.s", "ns.", "n. s.", "not significant"
  * "ns" / "n.s." → [alpha, 1]. Trailing significance stars ("< .001***") are ignored.
  */
 export function readPrintedP(raw: string, alpha = 0.05): ReadResult<PrintedP> {
-  let text = raw.trim();
-  while (text.length > 0 && text.charCodeAt(text.length - 1) === 42 /* * */) text = text.slice(0, -1).trimEnd();
-  const lower = text.toLowerCase();
-  if (NS_FORMS.has(lower)) {
-    return {
-      ok: true,
-      value: { text, relation: "ns", lo: alpha, hi: 1, hiOpen: false, loOpen: false, value: null, decimals: 0, printedZero: false },
-    };
+  const result = scanP(raw, alpha);
+  return typeof result === "string" ? { ok: false, message: result } : { ok: true, value: result };
+}
+
+/** readPrintedP without the result wrapper: the PrintedP, or the error message. */
+export function scanP(raw: string, alpha: number): PrintedP | string {
+  let start = 0;
+  let end = raw.length;
+  while (start < end && raw.charCodeAt(start) <= 32) start++;
+  while (end > start && (raw.charCodeAt(end - 1) <= 32 || raw.charCodeAt(end - 1) === 42 /* * */)) end--;
+  const first = start < end ? raw.charCodeAt(start) | 32 : 0; // | 32: ASCII lower case
+  if (first === 110 /* n */) {
+    const text = raw.slice(start, end);
+    if (NS_FORMS.has(text.toLowerCase())) {
+      return { text, relation: "ns", lo: alpha, hi: 1, hiOpen: false, loOpen: false, value: null, decimals: 0, printedZero: false };
+    }
+    return `"${text}" is not a p-value (write e.g. .032, = .032, < .001, > .05 or ns)`;
   }
-  let i = 0;
-  const length = lower.length;
-  if (i < length && lower.charCodeAt(i) === 112 /* p */) {
+  let i = start;
+  if (first === 112 /* p */) {
     i++;
-    while (i < length && isSpace(lower.charCodeAt(i))) i++;
+    while (i < end && isSpace(raw.charCodeAt(i))) i++;
   }
   let relation: PRelation = "=";
-  const c = i < length ? lower.charCodeAt(i) : 0;
+  const c = i < end ? raw.charCodeAt(i) : 0;
   if (c === 61 /* = */) {
     i++;
   } else if (c === 60 /* < */ || c === 0x2264 /* ≤ */) {
     relation = c === 0x2264 ? "<=" : "<";
     i++;
-    if (c === 60 && i < length && lower.charCodeAt(i) === 61) {
+    if (c === 60 && i < end && raw.charCodeAt(i) === 61) {
       relation = "<=";
       i++;
     }
   } else if (c === 62 /* > */ || c === 0x2265 /* ≥ */) {
     relation = c === 0x2265 ? ">=" : ">";
     i++;
-    if (c === 62 && i < length && lower.charCodeAt(i) === 61) {
+    if (c === 62 && i < end && raw.charCodeAt(i) === 61) {
       relation = ">=";
       i++;
     }
   }
-  const printed = readPrintedNumber(lower.slice(i));
-  if (printed === null) {
-    return { ok: false, message: `"${text}" is not a p-value (write e.g. .032, = .032, < .001, > .05 or ns)` };
-  }
-  if (printed.value < 0 || printed.value > 1) {
-    return { ok: false, message: `p = ${printed.text} lies outside [0, 1]` };
-  }
+  while (i < end && isSpace(raw.charCodeAt(i))) i++;
+  const printed = scanNumber(raw, i, end);
+  const text = start === 0 && end === raw.length ? raw : raw.slice(start, end);
+  if (printed === null) return `"${text}" is not a p-value (write e.g. .032, = .032, < .001, > .05 or ns)`;
   const value = printed.value;
+  if (value < 0 || value > 1) return `p = ${printed.text} lies outside [0, 1]`;
   let lo: number;
   let hi: number;
   if (relation === "=") {
-    lo = Math.max(0, printed.lo);
-    hi = Math.min(1, printed.hi);
+    lo = printed.lo < 0 ? 0 : printed.lo;
+    hi = printed.hi > 1 ? 1 : printed.hi;
   } else if (relation === "<" || relation === "<=") {
-    if (value === 0) return { ok: false, message: `p ${relation} 0 is impossible: a p-value is never below zero` };
+    if (value === 0) return `p ${relation} 0 is impossible: a p-value is never below zero`;
     lo = 0;
     hi = value;
   } else {
-    if (value === 1 && relation === ">") return { ok: false, message: "p > 1 is impossible" };
+    if (value === 1 && relation === ">") return "p > 1 is impossible";
     lo = value;
     hi = 1;
   }
   return {
-    ok: true,
-    value: {
-      text,
-      relation,
-      lo,
-      hi,
-      hiOpen: relation === "<",
-      loOpen: relation === ">",
-      value,
-      decimals: printed.decimals,
-      printedZero: relation === "=" && value === 0,
-    },
+    text,
+    relation,
+    lo,
+    hi,
+    hiOpen: relation === "<",
+    loOpen: relation === ">",
+    value,
+    decimals: printed.decimals,
+    printedZero: relation === "=" && value === 0,
   };
 }
 

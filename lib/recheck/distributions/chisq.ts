@@ -32,8 +32,8 @@ export function chisqDensity(x: number, df: number): number {
 
 /**
  * The x with P(X > x) = p for X ~ χ²(df) (R's qchisq(p, df, lower.tail = FALSE)). Starts from the
- * Wilson & Hilferty (1931) cube-root approximation and refines by safeguarded Newton steps on the upper
- * tail, keeping a bracket so a poor start can never diverge.
+ * Wilson & Hilferty (1931) cube-root approximation and refines by safeguarded Newton steps on the log of the
+ * upper tail, keeping a bracket so a poor start can never diverge.
  */
 export function chisqUpperQuantile(p: number, df: number): number {
   if (!(p > 0 && p <= 1) || !(df > 0)) return p === 0 ? Infinity : Number.NaN;
@@ -49,7 +49,9 @@ export function chisqUpperQuantile(p: number, df: number): number {
     if (q > p) lo = x;
     else hi = x;
     const density = chisqDensity(x, df);
-    let next = density > 0 ? x + (q - p) / density : Number.NaN;
+    // Newton on ln Q (d ln Q/dx = −f/Q): in the far tail Q falls like e^(−x/2), where a step on Q
+    // itself would only move x by about 2.
+    let next = density > 0 && q > 0 ? x + ((Math.log(q) - Math.log(p)) * q) / density : Number.NaN;
     if (!(next > lo && next < hi)) next = hi === Infinity ? Math.max(2 * x, x + 1) : (lo + hi) / 2;
     if (Math.abs(next - x) <= 1e-15 * Math.max(1, x)) return next;
     x = next;
