@@ -173,7 +173,7 @@ describe("incomplete gamma identities", () => {
 
 describe("chisqUpperQuantile", () => {
   // Source: the reference file's qchisq_95 (R's qchisq(.95, df), df 1–30).
-  it.each(reference.qchisq_95.map((q) => [q.df, q.q95] as const))("95 %% critical value for df = %s matches R", (df, q) => {
+  it.each(reference.qchisq_95.map((q) => [q.df, q.q95] as const))("95-percent critical value for df = %s matches R", (df, q) => {
     expect(relativeError(chisqUpperQuantile(0.05, df), q)).toBeLessThan(1e-9);
   });
 
