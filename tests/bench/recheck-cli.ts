@@ -70,11 +70,12 @@ async function writeBenchSheet(file: string): Promise<number> {
 
 // Printed by every node process started with NODE_OPTIONS, when it exits.
 const PRELOAD = `data:text/javascript,${encodeURIComponent(
-  `process.on("exit", () => process.stderr.write("[bench] pid=" + process.pid + " maxrss_kb=" + process.resourceUsage().maxRSS + "\\n"));`,
+  `process.on("exit", () => { const u = process.resourceUsage(); process.stderr.write("[bench] pid=" + process.pid + " maxrss_kb=" + u.maxRSS + " cpu_us=" + (u.userCPUTime + u.systemCPUTime) + "\\n"); });`,
 )}`;
 
 interface Measured {
   seconds: number;
+  cpuSeconds: number;
   status: number | null;
   outputLines: number;
   outputBytes: number;
@@ -124,9 +125,12 @@ async function runCli(args: string[]): Promise<Measured> {
   const [status] = (await once(child, "close")) as [number | null];
   clearInterval(sampler);
   const seconds = (performance.now() - started) / 1000;
-  const peaks = [...stderr.matchAll(/\[bench\] pid=\d+ maxrss_kb=(\d+)/g)].map((m) => Number(m[1]));
+  const reports = [...stderr.matchAll(/\[bench\] pid=\d+ maxrss_kb=(\d+) cpu_us=(\d+)/g)];
+  const peaks = reports.map((m) => Number(m[1]));
+  // CPU time of all node processes (launcher and CLI): less sensitive than wall time to a busy machine
+  const cpuSeconds = reports.reduce((sum, m) => sum + Number(m[2]), 0) / 1e6;
   const cliStderr = stderr.replace(/\[bench\][^\n]*\n/g, "");
-  return { seconds, status, outputLines, outputBytes, peakKb: Math.max(0, ...peaks), vmHwmKb, stderr: cliStderr };
+  return { seconds, cpuSeconds, status, outputLines, outputBytes, peakKb: Math.max(0, ...peaks), vmHwmKb, stderr: cliStderr };
 }
 
 /** One pass of the CLI's work without its output; run in a child so that it starts cold like the CLI. */
@@ -175,7 +179,7 @@ async function main(): Promise<void> {
     const load = () => loadavg()[0].toFixed(1);
     console.log(`machine: ${availableParallelism()} cores, load average ${load()} (1 min) before the runs`);
     const startup = await runCli(["--help"]);
-    console.log(`tsx start-up alone (--help): ${startup.seconds.toFixed(2)} s, ${mb(startup.peakKb)} MB`);
+    console.log(`tsx start-up alone (--help): ${startup.seconds.toFixed(2)} s (CPU ${startup.cpuSeconds.toFixed(2)} s), ${mb(startup.peakKb)} MB`);
     const read = await coldPass(file, false);
     const rechecked = await coldPass(file, true);
     console.log(
@@ -200,7 +204,7 @@ async function main(): Promise<void> {
       console.log(
         `--format ${format}: wall ${runs.map((r) => r.seconds.toFixed(2)).join(" / ")} s (median ${seconds.toFixed(2)} s, ` +
           `target < ${TARGET_SECONDS} s: ${verdict(seconds < TARGET_SECONDS)}; ${(seconds - startup.seconds).toFixed(2)} s after start-up, ` +
-          `${Math.round(rows / (seconds - startup.seconds)).toLocaleString("en")} rows/s), ` +
+          `${Math.round(rows / (seconds - startup.seconds)).toLocaleString("en")} rows/s; CPU ${median(runs.map((r) => r.cpuSeconds)).toFixed(2)} s), ` +
           `peak RSS ${mb(peak)} MB (target < ${TARGET_MB} MB: ${verdict(peak / 1024 < TARGET_MB)}; sampled VmHWM ${mb(hwm)} MB), ` +
           `output ${runs[0].outputLines} lines, ${(runs[0].outputBytes / 1e6).toFixed(1)} MB`,
       );
