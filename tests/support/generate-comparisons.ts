@@ -362,6 +362,8 @@ function plant(kind: PlantedError, c: ComparisonInput, s: Scenario, random: Rand
     case "difference-conclusion-changed": {
       if (c.dChisq === undefined) return false;
       const p = chisqUpperTail(Number(c.dChisq), Number(c.dDf));
+      // away from alpha, where the printed Δχ²'s rounding could leave the side undecided
+      if (p > 0.04 && p < 0.06) return false;
       c.dP = p < 0.05 ? pick(random, ["ns", "> .05", ".12"]) : p > 0.1 ? "< .05" : "< .01";
       return true;
     }
@@ -376,8 +378,11 @@ function plant(kind: PlantedError, c: ComparisonInput, s: Scenario, random: Rand
       if (!s.robust || c.dChisq === undefined || a.chisqScaled === undefined || b.chisqScaled === undefined) return false;
       const naive = Number(a.chisqScaled) - Number(b.chisqScaled);
       // Only where the naive difference is clearly not the scaled one (with similar c they coincide).
-      const sb = s.sbApplies ? (s.a.chisq - s.b.chisq) / ((s.a.df * s.a.scaling - s.b.df * s.b.scaling) / (s.a.df - s.b.df)) : Number(c.dChisq);
-      if (naive <= 0 || Math.abs(naive - sb) < Math.max(1, 0.15 * sb)) return false;
+      const cd = (s.a.df * s.a.scaling - s.b.df * s.b.scaling) / (s.a.df - s.b.df);
+      const sb = s.sbApplies ? (s.a.chisq - s.b.chisq) / cd : Number(c.dChisq);
+      // the spread of the recomputed SB value from scaling factors printed at 3 decimals
+      const spread = s.sbApplies ? (sb * (s.a.df + s.b.df) * 0.0005) / (s.a.df - s.b.df) / cd + 0.01 : 0.01;
+      if (naive <= 0 || Math.abs(naive - sb) < Math.max(1 + 3 * spread, 0.15 * sb)) return false;
       c.dChisq = fixed(naive, k);
       c.dP = printP(random, chisqUpperTail(naive, Number(c.dDf)), 3);
       c.method = c.method === "ic" ? "lrt" : c.method;

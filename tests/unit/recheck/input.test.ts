@@ -1,0 +1,130 @@
+// Bad input gives a FieldError naming the DESIGN §5 sheet column; nothing ever throws, and no output
+// holds NaN or Infinity (DESIGN §4, "never a NaN").
+import { describe, expect, it } from "vitest";
+import { recheck, recheckModel, validateComparison, validateModel, type ComparisonInput } from "@/lib/recheck";
+import { generateComparisons } from "@/tests/support/generate-comparisons";
+import { comparisonInput } from "./reference";
+
+const base = (): ComparisonInput => comparisonInput("hs3eq_vs_hs3_ML", 3);
+
+function errorsOf(input: ComparisonInput) {
+  const outcome = recheck(input);
+  expect(outcome.ok).toBe(false);
+  return outcome.ok ? [] : outcome.errors;
+}
+
+describe("each kind of unreadable cell names its column", () => {
+  const cases: Array<[string, (c: ComparisonInput) => void, string]> = [
+    ["a non-numeric χ²", (c) => (c.restricted.chisq = "n/a"), "a_chisq"],
+    ["a thousands separator", (c) => (c.free.aic = "7,517.49"), "b_aic"],
+    ["a negative χ²", (c) => (c.free.chisq = "-3.2"), "b_chisq"],
+    ["a fractional df", (c) => (c.free.df = "23.5"), "b_df"],
+    ["a p above 1", (c) => (c.restricted.p = "1.20"), "a_p"],
+    ["a p below 0", (c) => (c.dP = "-.01"), "d_p"],
+    ["'p < 0'", (c) => (c.dP = "< 0"), "d_p"],
+    ["a zero N", (c) => (c.sample.n = "0"), "n"],
+    ["a negative N", (c) => (c.sample.n = "-301"), "n"],
+    ["a fractional N", (c) => (c.sample.n = "301.5"), "n"],
+    ["zero groups", (c) => (c.sample.groups = "0"), "n_groups"],
+    ["more groups than cases", (c) => ((c.sample.n = "3"), (c.sample.groups = "4")), "n_groups"],
+    ["alpha of 0", (c) => (c.alpha = "0"), "alpha"],
+    ["alpha of 1", (c) => (c.alpha = "1"), "alpha"],
+    ["alpha as a word", (c) => (c.alpha = "five percent"), "alpha"],
+    ["an unknown method", (c) => (c.method = "anova"), "method"],
+    ["a missing method", (c) => (c.method = undefined), "method"],
+    ["an unknown estimator", (c) => (c.restricted.estimator = "MLX"), "a_estimator"],
+    ["an unknown nested value", (c) => (c.nested = "maybe"), "nested"],
+    ["an unknown preferred value", (c) => (c.preferred = "c"), "preferred"],
+    ["an unknown invariance claim", (c) => (c.invarianceClaimed = "partly"), "invariance_claimed"],
+    ["a CFI above 1", (c) => (c.free.cfi = "1.20"), "b_cfi"],
+    ["a zero scaling factor", (c) => (c.free.scaling = "0"), "b_scaling"],
+    ["a fractional Δdf", (c) => (c.dDf = "5.5"), "d_df"],
+    ["a non-numeric ΔCFI", (c) => (c.dCfi = "small"), "d_cfi"],
+    ["zero free parameters", (c) => (c.free.npar = "0"), "b_npar"],
+    ["more fixed-x than observed variables", (c) => ((c.free.nObserved = "3"), (c.free.nFixedX = "4")), "b_n_fixed_x"],
+    ["an unreadable mean structure", (c) => (c.free.meanStructure = "sometimes"), "b_mean_structure"],
+  ];
+
+  it.each(cases)("%s → %s", (_what, change, column) => {
+    const input = base();
+    change(input);
+    const errors = errorsOf(input);
+    expect(errors.map((e) => e.column)).toContain(column);
+    for (const e of errors) expect(e.message.length).toBeGreaterThan(5);
+  });
+
+  it("validateComparison reports the same errors recheck would, for forms to show field by field", () => {
+    const input = base();
+    input.restricted.chisq = "n/a";
+    input.alpha = "2";
+    expect(validateComparison(input).map((e) => e.column).sort()).toEqual(["a_chisq", "alpha"]);
+    expect(validateComparison(base())).toEqual([]);
+  });
+
+  it("a lone model's cells are named without the a_/b_ prefix", () => {
+    expect(validateModel({ chisq: "x" }, { n: "10" }).map((e) => e.column)).toEqual(["chisq"]);
+    const outcome = recheckModel({ df: "2.5" }, { n: "-1" });
+    expect(outcome.ok ? [] : outcome.errors.map((e) => e.column).sort()).toEqual(["df", "n"]);
+  });
+});
+
+describe("what is not a field error", () => {
+  it("a negative df is the negative-df finding, not a field error", () => {
+    const outcome = recheck({ method: "lrt", sample: { n: "100" }, restricted: { df: "-2" }, free: { df: "1" } });
+    expect(outcome.ok && outcome.result.findings.map((f) => f.code)).toContain("negative-df");
+  });
+
+  it("empty and missing cells are 'not reported', and the checks that need them are skipped with a reason", () => {
+    const outcome = recheck({ method: "lrt", dP: "  ", sample: {}, restricted: { chisq: "" }, free: {} });
+    expect(outcome.ok).toBe(true);
+    if (!outcome.ok) return;
+    expect(outcome.result.findings).toEqual([]);
+    expect(outcome.result.skipped.length).toBeGreaterThan(0);
+    for (const s of outcome.result.skipped) expect(s.reason.length).toBeGreaterThan(3);
+  });
+
+  it("case and spacing of choice cells do not matter", () => {
+    const input = { ...base(), method: " LRT ", nested: "Yes" };
+    input.restricted.estimator = "ml";
+    expect(recheck(input).ok).toBe(true);
+  });
+
+  it("never throws, even on a malformed object", () => {
+    expect(() => recheck({} as ComparisonInput)).not.toThrow();
+    expect(() => recheck(null as unknown as ComparisonInput)).not.toThrow();
+  });
+});
+
+/** Walks a JSON value; every number must be finite (JSON.stringify would turn NaN/Infinity into null). */
+function assertFinite(value: unknown, path: string): void {
+  if (typeof value === "number") expect(Number.isFinite(value), path).toBe(true);
+  else if (Array.isArray(value)) value.forEach((v, i) => assertFinite(v, `${path}[${i}]`));
+  else if (value !== null && typeof value === "object") for (const [k, v] of Object.entries(value)) assertFinite(v, `${path}.${k}`);
+}
+
+describe("no NaN or Infinity anywhere in the output", () => {
+  it("holds for 3 000 generated comparisons, consistent and with planted errors (JSON round trip has no stray null)", () => {
+    for (const input of generateComparisons({ count: 3000, seed: 99, errorShare: 0.5 })) {
+      const outcome = recheck(input);
+      assertFinite(outcome, "outcome");
+      if (!outcome.ok) continue;
+      // JSON.stringify writes NaN/Infinity as null; the engine only uses null for "printed bound absent".
+      const json = JSON.stringify(outcome.result);
+      for (const match of json.matchAll(/"([A-Za-z.]+)":null/g)) expect(["reportedLower", "reportedUpper"], match[1]).toContain(match[1]);
+    }
+  });
+
+  it("holds for extreme printed values (huge χ², tiny df, cd near 0, p at the bounds)", () => {
+    const extreme: ComparisonInput = {
+      method: "scaled_lrt",
+      dChisq: "1e6",
+      dP: "0",
+      sample: { n: "2", groups: "2" },
+      restricted: { estimator: "MLR", chisq: "99999999.99", df: "1", scaling: "1.00", rmsea: "9.9", rmseaLo: "0", rmseaHi: "1e3", cfi: "0", tli: "-50", baselineChisq: "0.001", baselineDf: "1" },
+      free: { estimator: "MLR", chisq: "0.00", df: "0", chisqScaled: "0.00" },
+    };
+    const outcome = recheck(extreme);
+    assertFinite(outcome, "outcome");
+    expect(outcome.ok).toBe(true);
+  });
+});
