@@ -5,6 +5,7 @@ import { AppError, isAppError, type FieldErrors } from "@/lib/errors";
 import { respond } from "@/lib/http/respond";
 import type { ActionState, FormAction } from "./action-state";
 import { readAccount } from "./account-cache";
+import { bindLocalModels } from "./model-binding";
 import type { SessionUser } from "./current-user";
 import { hasRole, type Role } from "./roles";
 import { readClientAddress, readSession } from "./session";
@@ -91,6 +92,7 @@ export function withRole<S extends Schema>(
 ): RouteHandler {
   const guarded: RouteHandler = (request, context) =>
     respond(async () => {
+      await bindLocalModels();
       const user = await authorizeCaller(role);
       const input = validate(schema, await readRouteInput(request));
       return handler(input, user, request, context);
@@ -100,7 +102,11 @@ export function withRole<S extends Schema>(
 
 /** A mutating route anyone may call (apply, reset request): no session, but the same validation. */
 export function withPublicInput<S extends Schema>(schema: S, handler: (input: InputOf<S>, request: Request, context: RouteContext) => Promise<Response>): RouteHandler {
-  const guarded: RouteHandler = (request, context) => respond(async () => handler(validate(schema, await readRouteInput(request)), request, context));
+  const guarded: RouteHandler = (request, context) =>
+    respond(async () => {
+      await bindLocalModels();
+      return handler(validate(schema, await readRouteInput(request)), request, context);
+    });
   return mark(guarded, { kind: "route", access: "public" });
 }
 
@@ -140,6 +146,7 @@ export function actionWithRole<S extends Schema>(role: Role, schema: S, handler:
   const guarded: FormAction = async (_previous, formData) => {
     const { raw, echo } = formInput(formData);
     return runAction(async () => {
+      await bindLocalModels();
       const user = await authorizeCaller(role);
       const input = validate(schema, raw);
       return handler(input, user, { address: await readClientAddress() });
@@ -152,7 +159,10 @@ export function actionWithRole<S extends Schema>(role: Role, schema: S, handler:
 export function publicAction<S extends Schema>(schema: S, handler: (input: InputOf<S>, context: ActionContext) => Promise<string | void>): FormAction {
   const guarded: FormAction = async (_previous, formData) => {
     const { raw, echo } = formInput(formData);
-    return runAction(async () => handler(validate(schema, raw), { address: await readClientAddress() }), echo);
+    return runAction(async () => {
+      await bindLocalModels();
+      return handler(validate(schema, raw), { address: await readClientAddress() });
+    }, echo);
   };
   return mark(guarded, { kind: "action", access: "public" });
 }
