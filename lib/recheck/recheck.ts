@@ -4,14 +4,31 @@
 // columns, "b" = the b_ columns), so a coder can find the cell even when the models were entered in the
 // wrong order. Comparison-level checks run on the models in restricted/free order. A model checked on
 // its own by recheckModel() is reported as subject "a".
-import { checkCriteriaArithmetic, checkPreference } from "./checks/criteria";
-import { checkDfDifference, checkNegativeDifference, checkPlainDifference, checkScaledDifference } from "./checks/difference";
-import { checkDeltaFit, checkInvarianceClaim, checkPoorFitBoth } from "./checks/fit-rules";
-import { checkModel } from "./checks/model";
-import { parseComparison, parseModel, parseSample, type ParsedComparison, type ParsedModel } from "./parse";
+import { checkCriteriaArithmetic as checkCriteriaArithmeticImport, checkPreference as checkPreferenceImport } from "./checks/criteria";
+import { checkDfDifference as checkDfDifferenceImport, checkNegativeDifference as checkNegativeDifferenceImport, checkPlainDifference as checkPlainDifferenceImport, checkScaledDifference as checkScaledDifferenceImport } from "./checks/difference";
+import { checkDeltaFit as checkDeltaFitImport, checkInvarianceClaim as checkInvarianceClaimImport, checkPoorFitBoth as checkPoorFitBothImport } from "./checks/fit-rules";
+import { checkModel as checkModelImport } from "./checks/model";
+import { parseComparison as parseComparisonImport, parseModel as parseModelImport, parseSample as parseSampleImport, type ParsedComparison, type ParsedModel } from "./parse";
 import { Report } from "./report";
-import { ENGINE_VERSION, resolveSettings } from "./settings";
+import { ENGINE_VERSION, resolveSettings as resolveSettingsImport } from "./settings";
 import type { ComparisonInput, FieldError, ModelInput, RecheckOutcome, RecheckSettings, SampleInput } from "./types";
+
+// Imported functions bound once: under tsx (CommonJS output, as the CLI runs) each call to an import
+// otherwise goes through an export getter, which showed up in the engine benchmark's profile.
+const checkCriteriaArithmetic = checkCriteriaArithmeticImport;
+const checkDeltaFit = checkDeltaFitImport;
+const checkDfDifference = checkDfDifferenceImport;
+const checkInvarianceClaim = checkInvarianceClaimImport;
+const checkModel = checkModelImport;
+const checkNegativeDifference = checkNegativeDifferenceImport;
+const checkPlainDifference = checkPlainDifferenceImport;
+const checkPoorFitBoth = checkPoorFitBothImport;
+const checkPreference = checkPreferenceImport;
+const checkScaledDifference = checkScaledDifferenceImport;
+const parseComparison = parseComparisonImport;
+const parseModel = parseModelImport;
+const parseSample = parseSampleImport;
+const resolveSettings = resolveSettingsImport;
 
 /** Rechecks one reported comparison. Never throws: unreadable cells come back as field errors. */
 export function recheck(input: ComparisonInput, settings?: Partial<RecheckSettings>): RecheckOutcome {

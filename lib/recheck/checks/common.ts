@@ -4,11 +4,10 @@ import { meets as meetsImport } from "../interval";
 import type { PrintedP } from "../printed";
 import type { Estimator, Interval } from "../types";
 
-const meets = meetsImport;
-
 // Imported functions bound once: under tsx (CommonJS output, as the CLI runs) each call to an import
 // otherwise goes through an export getter, which showed up in the engine benchmark's profile.
 const chisqUpperTail = chisqUpperTailImport;
+const meets = meetsImport;
 
 /** How a printed p relates to a recomputed p interval. */
 export type PVerdict = "consistent" | "halved" | "halved-changed" | "changed" | "mismatch";

@@ -2,12 +2,20 @@
 // models of the same data χ² = 2(LL_saturated − LL) and df = moments − q, so whatever AIC convention the
 // software prints, ΔAIC = Δχ² − 2Δdf and ΔBIC = Δχ² − Δdf·ln N (DESIGN §4.3). These checks always use
 // the normal-theory χ² and log-likelihood, also for robust estimators.
-import { differenceOf, meets, showInterval } from "../interval";
+import { differenceOf as differenceOfImport, meets as meetsImport, showInterval as showIntervalImport } from "../interval";
 import type { ParsedComparison, ParsedModel } from "../parse";
 import type { PrintedNumber } from "../printed";
 import type { Report } from "../report";
 import type { Interval } from "../types";
-import { isMlFamily, modelName } from "./common";
+import { isMlFamily as isMlFamilyImport, modelName as modelNameImport } from "./common";
+
+// Imported functions bound once: under tsx (CommonJS output, as the CLI runs) each call to an import
+// otherwise goes through an export getter, which showed up in the engine benchmark's profile.
+const differenceOf = differenceOfImport;
+const isMlFamily = isMlFamilyImport;
+const meets = meetsImport;
+const modelName = modelNameImport;
+const showInterval = showIntervalImport;
 
 interface Convention {
   name: string;

@@ -1,15 +1,32 @@
 // The difference test of a comparison (DESIGN §4.3): Δdf, Δχ², its p, and for robust estimators the
 // Satorra–Bentler scaled difference. A and B are already in restricted/free order here, and every
 // printed Δ is read as restricted − free.
-import { chisqUpperTail } from "../distributions/chisq";
-import { differenceOf, meets, show, showInterval, showPInterval } from "../interval";
+import { chisqUpperTail as chisqUpperTailImport } from "../distributions/chisq";
+import { differenceOf as differenceOfImport, meets as meetsImport, show as showImport, showInterval as showIntervalImport, showPInterval as showPIntervalImport } from "../interval";
 import type { ParsedComparison, ParsedModel } from "../parse";
 import type { PrintedNumber, PrintedP } from "../printed";
 import type { Report } from "../report";
 import type { Interval } from "../types";
-import { conclusionChanged, isMlFamily, judgeP, upperTailInterval } from "./common";
-import { pText } from "./model";
-import { chisqForm, loglikForm, sbApplies, type ScaledForm } from "./scaled";
+import { conclusionChanged as conclusionChangedImport, isMlFamily as isMlFamilyImport, judgeP as judgePImport, upperTailInterval as upperTailIntervalImport } from "./common";
+import { pText as pTextImport } from "./model";
+import { chisqForm as chisqFormImport, loglikForm as loglikFormImport, sbApplies as sbAppliesImport, type ScaledForm } from "./scaled";
+
+// Imported functions bound once: under tsx (CommonJS output, as the CLI runs) each call to an import
+// otherwise goes through an export getter, which showed up in the engine benchmark's profile.
+const chisqForm = chisqFormImport;
+const chisqUpperTail = chisqUpperTailImport;
+const conclusionChanged = conclusionChangedImport;
+const differenceOf = differenceOfImport;
+const isMlFamily = isMlFamilyImport;
+const judgeP = judgePImport;
+const loglikForm = loglikFormImport;
+const meets = meetsImport;
+const pText = pTextImport;
+const sbApplies = sbAppliesImport;
+const show = showImport;
+const showInterval = showIntervalImport;
+const showPInterval = showPIntervalImport;
+const upperTailInterval = upperTailIntervalImport;
 
 const TEST_METHODS = new Set(["lrt", "scaled_lrt", "invariance"]);
 const SB_KEYS = { cd: "sb2001.cd", statistic: "sb2001.statistic", p: "sb2001.p" };

@@ -1,30 +1,32 @@
 // A model's own checks (DESIGN §4.3): identification, its χ² p, RMSEA and CI, CFI/TLI, the df recount
 // and AIC/BIC from the log-likelihood. Used for both models of a comparison and for lone models.
-import { meets as meetsImport, showPInterval } from "../interval";
+import { meets as meetsImport, showPInterval as showPIntervalImport } from "../interval";
 import type { ParsedModel, ParsedSample } from "../parse";
 import type { Report } from "../report";
-import { judgeP as judgePImport, modelName, upperTailInterval as upperTailIntervalImport } from "./common";
-import { checkModelCriteria } from "./criteria";
-import { scaledStatistic, scalingFactor } from "./derived";
-import { checkFitIndices } from "./fit-indices";
-import {
-  describeInterval,
-  describePoint,
-  intervalMeets,
-  matchRmseaInterval,
-  matchRmseaPoint,
-  primaryConvention,
-  recomputeRmseaInterval,
-  rmseaConventions,
-  type RmseaConvention,
-  type RmseaInputs,
-} from "./rmsea";
-
-const meets = meetsImport;
+import { judgeP as judgePImport, modelName as modelNameImport, upperTailInterval as upperTailIntervalImport } from "./common";
+import { checkModelCriteria as checkModelCriteriaImport } from "./criteria";
+import { scaledStatistic as scaledStatisticImport, scalingFactor as scalingFactorImport } from "./derived";
+import { checkFitIndices as checkFitIndicesImport } from "./fit-indices";
+import { describeInterval as describeIntervalImport, describePoint as describePointImport, intervalMeets as intervalMeetsImport, matchRmseaInterval as matchRmseaIntervalImport, matchRmseaPoint as matchRmseaPointImport, primaryConvention as primaryConventionImport, recomputeRmseaInterval as recomputeRmseaIntervalImport, rmseaConventions as rmseaConventionsImport, type RmseaConvention, type RmseaInputs } from "./rmsea";
 
 // Imported functions bound once: under tsx (CommonJS output, as the CLI runs) each call to an import
 // otherwise goes through an export getter, which showed up in the engine benchmark's profile.
+const checkFitIndices = checkFitIndicesImport;
+const checkModelCriteria = checkModelCriteriaImport;
+const describeInterval = describeIntervalImport;
+const describePoint = describePointImport;
+const intervalMeets = intervalMeetsImport;
 const judgeP = judgePImport;
+const matchRmseaInterval = matchRmseaIntervalImport;
+const matchRmseaPoint = matchRmseaPointImport;
+const meets = meetsImport;
+const modelName = modelNameImport;
+const primaryConvention = primaryConventionImport;
+const recomputeRmseaInterval = recomputeRmseaIntervalImport;
+const rmseaConventions = rmseaConventionsImport;
+const scaledStatistic = scaledStatisticImport;
+const scalingFactor = scalingFactorImport;
+const showPInterval = showPIntervalImport;
 const upperTailInterval = upperTailIntervalImport;
 
 // recomputed-figure keys per subject, built once (constant strings keep the result objects fast).

@@ -10,16 +10,18 @@
 // Checking a printed bound needs no root finding: F falls in λ and rises in χ², so the printed bound's
 // interval meets the recomputed one iff the CDF condition changes sign across it (two CDF evaluations).
 // Roots are only found, lazily, to report the recomputed interval when nothing matched.
-import { noncentralChisqCdf as noncentralChisqCdfImport, noncentralityForCdf } from "../distributions/noncentral";
-import { meets as meetsImport, show, showInterval } from "../interval";
+import { noncentralChisqCdf as noncentralChisqCdfImport, noncentralityForCdf as noncentralityForCdfImport } from "../distributions/noncentral";
+import { meets as meetsImport, show as showImport, showInterval as showIntervalImport } from "../interval";
 import type { PrintedNumber } from "../printed";
 import type { Interval } from "../types";
 
-const meets = meetsImport;
-
 // Imported functions bound once: under tsx (CommonJS output, as the CLI runs) each call to an import
 // otherwise goes through an export getter, which showed up in the engine benchmark's profile.
+const meets = meetsImport;
 const noncentralChisqCdf = noncentralChisqCdfImport;
+const noncentralityForCdf = noncentralityForCdfImport;
+const show = showImport;
+const showInterval = showIntervalImport;
 
 /** One corner of the outer enclosure for the CI check: statistic x, its df, and λ = bound² · k. */
 interface Corner {

@@ -6,7 +6,11 @@
 // as intervals: a small cd makes T very sensitive to the printed decimals.
 import type { ParsedModel } from "../parse";
 import type { Estimator, Interval } from "../types";
-import { scalingFactor } from "./derived";
+import { scalingFactor as scalingFactorImport } from "./derived";
+
+// Imported functions bound once: under tsx (CommonJS output, as the CLI runs) each call to an import
+// otherwise goes through an export getter, which showed up in the engine benchmark's profile.
+const scalingFactor = scalingFactorImport;
 
 export type ScaledFormName = "chi-square form" | "log-likelihood form";
 
