@@ -10,7 +10,7 @@
 // Checking a printed bound needs no root finding: F falls in λ and rises in χ², so the printed bound's
 // interval meets the recomputed one iff the CDF condition changes sign across it (two CDF evaluations).
 // Roots are only found, lazily, to report the recomputed interval when nothing matched.
-import { noncentralChisqCdf as noncentralChisqCdfImport, noncentralityForCdf as noncentralityForCdfImport } from "../distributions/noncentral";
+import { noncentralCdfAtLeast as noncentralCdfAtLeastImport, noncentralityForCdf as noncentralityForCdfImport } from "../distributions/noncentral";
 import { meets as meetsImport, show as showImport, showInterval as showIntervalImport } from "../interval";
 import type { PrintedNumber } from "../printed";
 import type { Interval } from "../types";
@@ -18,7 +18,7 @@ import type { Interval } from "../types";
 // Imported functions bound once: under tsx (CommonJS output, as the CLI runs) each call to an import
 // otherwise goes through an export getter, which showed up in the engine benchmark's profile.
 const meets = meetsImport;
-const noncentralChisqCdf = noncentralChisqCdfImport;
+const noncentralCdfAtLeast = noncentralCdfAtLeastImport;
 const noncentralityForCdf = noncentralityForCdfImport;
 const show = showImport;
 const showInterval = showIntervalImport;
@@ -180,11 +180,11 @@ function boundMeets(printed: PrintedNumber, target: number, convention: RmseaCon
   const { high, low } = convention;
   // printed.lo ≤ recomputed maximum  ⇔  F(x_high; df, λ(printed.lo)) ≥ target (or λ = 0)
   const lambdaLo = printed.lo > 0 ? printed.lo * printed.lo * high.k : 0;
-  if (lambdaLo > 0 && (!(high.x > 0) || noncentralChisqCdf(high.x, high.df, lambdaLo) < target - SLACK)) return false;
+  if (lambdaLo > 0 && (!(high.x > 0) || !noncentralCdfAtLeast(high.x, high.df, lambdaLo, target - SLACK))) return false;
   // printed.hi ≥ recomputed minimum  ⇔  F(x_low; df, λ(printed.hi)) ≤ target
   const lambdaHi = printed.hi * printed.hi * low.k;
   if (low.x <= 0) return true; // χ² interval reaches 0: the recomputed bound can be 0
-  return noncentralChisqCdf(low.x, low.df, lambdaHi) <= target + SLACK;
+  return !noncentralCdfAtLeast(low.x, low.df, lambdaHi, target + SLACK);
 }
 
 /** First convention (trying `first` before the rest) under which every printed bound is reproduced. */

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { chisqCdf, chisqUpperQuantile, chisqUpperTail } from "@/lib/recheck/distributions/chisq";
 import { logGamma, regularizedGammaP, regularizedGammaQ } from "@/lib/recheck/distributions/gamma";
-import { noncentralChisqCdf, noncentralityForCdf } from "@/lib/recheck/distributions/noncentral";
+import { noncentralCdfAtLeast, noncentralChisqCdf, noncentralityForCdf } from "@/lib/recheck/distributions/noncentral";
 import { reference } from "./reference";
 
 const relativeError = (got: number, want: number) => Math.abs(got - want) / Math.abs(want);
@@ -229,6 +229,24 @@ describe("noncentralChisqCdf (Poisson-mixture series)", () => {
   it.each(reference.rmsea_ci.map((r) => [r.label, r] as const))("%s: root finding recovers R's λ bounds within 1e-6 relative", (_label, r) => {
     expect(relativeError(noncentralityForCdf(r.chisq, r.df, 0.95), r.hand_tight_tol.lambda_lower)).toBeLessThan(1e-6);
     expect(relativeError(noncentralityForCdf(r.chisq, r.df, 0.05), r.hand_tight_tol.lambda_upper)).toBeLessThan(1e-6);
+  });
+
+  it("the early-stopping comparison F ≥ target agrees with the full sum on 20 000 seeded random points", () => {
+    // Park & Miller (1988) minimal standard generator, so the points are the same on every run.
+    let state = 12345;
+    const random = () => (state = (state * 16807) % 2147483647) / 2147483647;
+    let checked = 0;
+    for (let i = 0; i < 20_000; i++) {
+      const df = 1 + Math.floor(random() * 300);
+      const lambda = random() < 0.1 ? 0 : random() * 400;
+      const x = Math.max(0.01, df + lambda + (random() - 0.5) * 6 * Math.sqrt(2 * (df + 2 * lambda)));
+      const f = noncentralChisqCdf(x, df, lambda);
+      const target = Math.min(0.999, Math.max(0.001, f + (random() - 0.5) * 0.01));
+      if (Math.abs(f - target) < 1e-11) continue; // closer than the series' own accuracy
+      expect(noncentralCdfAtLeast(x, df, lambda, target)).toBe(f >= target);
+      checked++;
+    }
+    expect(checked).toBeGreaterThan(19_000);
   });
 
   it("gives λ = 0 when the χ² is too small to bound the interval away from zero", () => {
