@@ -5,7 +5,7 @@ import { AppError, isAppError, type FieldErrors } from "@/lib/errors";
 import { respond } from "@/lib/http/respond";
 import type { ActionState, FormAction } from "./action-state";
 import { readAccount } from "./account-cache";
-import { bindLocalModels } from "./model-binding";
+import { db } from "@/lib/db";
 import type { SessionUser } from "./current-user";
 import { hasRole, type Role } from "./roles";
 import { readClientAddress, readSession } from "./session";
@@ -92,7 +92,7 @@ export function withRole<S extends Schema>(
 ): RouteHandler {
   const guarded: RouteHandler = (request, context) =>
     respond(async () => {
-      await bindLocalModels();
+      await db(); // binds this chunk's model classes to the shared instance (lib/db/connection.ts)
       const user = await authorizeCaller(role);
       const input = validate(schema, await readRouteInput(request));
       return handler(input, user, request, context);
@@ -104,7 +104,7 @@ export function withRole<S extends Schema>(
 export function withPublicInput<S extends Schema>(schema: S, handler: (input: InputOf<S>, request: Request, context: RouteContext) => Promise<Response>): RouteHandler {
   const guarded: RouteHandler = (request, context) =>
     respond(async () => {
-      await bindLocalModels();
+      await db(); // binds this chunk's model classes to the shared instance (lib/db/connection.ts)
       return handler(validate(schema, await readRouteInput(request)), request, context);
     });
   return mark(guarded, { kind: "route", access: "public" });
@@ -146,7 +146,7 @@ export function actionWithRole<S extends Schema>(role: Role, schema: S, handler:
   const guarded: FormAction = async (_previous, formData) => {
     const { raw, echo } = formInput(formData);
     return runAction(async () => {
-      await bindLocalModels();
+      await db(); // binds this chunk's model classes to the shared instance (lib/db/connection.ts)
       const user = await authorizeCaller(role);
       const input = validate(schema, raw);
       return handler(input, user, { address: await readClientAddress() });
@@ -160,7 +160,7 @@ export function publicAction<S extends Schema>(schema: S, handler: (input: Input
   const guarded: FormAction = async (_previous, formData) => {
     const { raw, echo } = formInput(formData);
     return runAction(async () => {
-      await bindLocalModels();
+      await db(); // binds this chunk's model classes to the shared instance (lib/db/connection.ts)
       return handler(validate(schema, raw), { address: await readClientAddress() });
     }, echo);
   };

@@ -1,5 +1,5 @@
 import type { CreationAttributes, Model, ModelStatic, Transaction } from "sequelize";
-import { AuditEvent } from "@/models";
+import { getDatabase } from "./connection";
 
 // Every write path goes through these helpers, so each change leaves an AuditEvent with the row before
 // and after, written in the same transaction as the change itself.
@@ -30,7 +30,8 @@ export function auditValues(row: Model | Record<string, unknown>): Record<string
 
 export async function recordEvents(records: AuditRecord[], context: WriteContext): Promise<void> {
   if (records.length === 0) return;
-  await AuditEvent.bulkCreate(
+  // through the shared instance: this module may sit in a different Next.js chunk than the caller
+  await getDatabase().models.AuditEvent.bulkCreate(
     records.map((record) => ({
       actorId: context.actorId,
       entity: record.entity,

@@ -3,10 +3,11 @@ import { createHash } from "node:crypto";
 import type { InferCreationAttributes, Transaction } from "sequelize";
 import { recheck, recheckModel, DEFAULT_SETTINGS, ENGINE_VERSION } from "@/lib/recheck";
 import type { ComparisonInput, Finding, ModelInput, RecheckSettings, SampleInput } from "@/lib/recheck/types";
-import { Comparison, FitModel, Flag, Sample, Setting } from "@/models";
+import type { Comparison, FitModel, Sample } from "@/models";
 import { COMPARISON_FIGURES, MODEL_FIGURES, textAttribute } from "@/models/figures";
 import type { FlagSubject } from "@/models/flag";
 import { recordEvent } from "./audit";
+import { getDatabase } from "./connection";
 
 // Stored flags always match the stored entry: they are rewritten from the stored printed text, in the
 // caller's transaction, whenever a paper's coding or the engine changes.
@@ -56,7 +57,7 @@ export const RECHECK_SETTINGS_KEY = "recheck";
 
 /** The admin-configured alpha and cutoffs, over the engine defaults. */
 export async function readRecheckSettings(transaction?: Transaction): Promise<RecheckSettings> {
-  const row = await Setting.findByPk(RECHECK_SETTINGS_KEY, { transaction });
+  const row = await getDatabase().models.Setting.findByPk(RECHECK_SETTINGS_KEY, { transaction });
   return { ...DEFAULT_SETTINGS, ...((row?.value as Partial<RecheckSettings> | undefined) ?? {}) };
 }
 
@@ -72,6 +73,7 @@ export async function rewriteFlagsForPaper(
   options: { transaction?: Transaction; actorId: number | null; settings?: RecheckSettings },
 ): Promise<RewriteResult> {
   const { transaction } = options;
+  const { Comparison, FitModel, Flag, Sample } = getDatabase().models;
   const settings = options.settings ?? (await readRecheckSettings(transaction));
   const [samples, models, comparisons] = await Promise.all([
     Sample.findAll({ where: { paperId }, transaction }),
@@ -80,7 +82,7 @@ export async function rewriteFlagsForPaper(
   ]);
   const sampleById = new Map(samples.map((sample) => [sample.id, sample]));
   const modelById = new Map(models.map((model) => [model.id, model]));
-  const rows: Omit<InferCreationAttributes<Flag>, "id" | "createdAt">[] = [];
+  const rows: Omit<InferCreationAttributes<InstanceType<typeof Flag>>, "id" | "createdAt">[] = [];
   const covered = new Set<number>();
   let unreadable = 0;
 

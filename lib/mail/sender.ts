@@ -1,7 +1,6 @@
 import "server-only";
 import { Op } from "sequelize";
 import type { Transporter } from "nodemailer";
-import { bindLocalModels } from "@/lib/auth/model-binding";
 import { db, recordEvent } from "@/lib/db";
 import { env } from "@/lib/env";
 import { SENSITIVE_KINDS, type MailKind } from "./templates";
@@ -108,7 +107,7 @@ export function startMailSender(options: { intervalMs?: number; transport?: Tran
 
   async function pass() {
     try {
-      await bindLocalModels();
+      await db();
       let report: DeliveryReport;
       do report = await deliverDueMessages({ transport });
       while (report.attempted === BATCH && !stopped);
