@@ -1,6 +1,7 @@
 import type { Sequelize } from "sequelize";
 import { AuditEvent } from "./audit-event";
 import { Comparison } from "./comparison";
+import { Correction } from "./correction";
 import { FitModel } from "./fit-model";
 import { Flag } from "./flag";
 import { FlagDisposition } from "./flag-disposition";
@@ -13,9 +14,9 @@ import { SavedSearch } from "./saved-search";
 import { Setting } from "./setting";
 import { User } from "./user";
 
-export { AuditEvent, Comparison, FitModel, Flag, FlagDisposition, ImportBatch, OutboxMessage, Paper, PasswordResetToken, Sample, SavedSearch, Setting, User };
+export { AuditEvent, Comparison, Correction, FitModel, Flag, FlagDisposition, ImportBatch, OutboxMessage, Paper, PasswordResetToken, Sample, SavedSearch, Setting, User };
 
-export const models = { AuditEvent, Comparison, FitModel, Flag, FlagDisposition, ImportBatch, OutboxMessage, Paper, PasswordResetToken, Sample, SavedSearch, Setting, User };
+export const models = { AuditEvent, Comparison, Correction, FitModel, Flag, FlagDisposition, ImportBatch, OutboxMessage, Paper, PasswordResetToken, Sample, SavedSearch, Setting, User };
 export type Models = typeof models;
 
 /** Initialises every model on one Sequelize instance and wires the associations (DESIGN §3). */
@@ -53,6 +54,8 @@ export function initModels(sequelize: Sequelize): Models {
   FlagDisposition.belongsTo(User, { foreignKey: "curatorId", as: "curator" });
 
   AuditEvent.belongsTo(User, { foreignKey: "actorId", as: "actor" });
+  Paper.hasMany(Correction, { foreignKey: "paperId", as: "corrections" });
+  Correction.belongsTo(Paper, { foreignKey: "paperId", as: "paper" });
   ImportBatch.belongsTo(User, { foreignKey: "uploaderId", as: "uploader" });
   User.hasMany(SavedSearch, { foreignKey: "userId", as: "savedSearches" });
   SavedSearch.belongsTo(User, { foreignKey: "userId", as: "user" });

@@ -1,4 +1,5 @@
 import { DataTypes, Model, type CreationOptional, type ForeignKey, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
+import { DOI_PATTERN, stripDoi } from "@/lib/doi/normalise";
 import type { User } from "./user";
 
 export const ENTRY_STATES = ["draft", "submitted", "returned", "verified"] as const;
@@ -14,16 +15,7 @@ export interface CslName {
   suffix?: string;
 }
 
-/** Lower-case, without resolver prefix: "https://doi.org/10.5555/ABC" → "10.5555/abc". */
-export function normaliseDoi(value: string): string {
-  return value
-    .trim()
-    .replace(/^(?:https?:\/\/)?(?:dx\.)?doi\.org\//i, "")
-    .replace(/^doi:\s*/i, "")
-    .toLowerCase();
-}
-
-export const DOI_PATTERN = /^10\.\d{4,9}\/\S+$/;
+export { DOI_PATTERN, normaliseDoi } from "@/lib/doi/normalise";
 
 export class Paper extends Model<InferAttributes<Paper>, InferCreationAttributes<Paper>> {
   declare id: CreationOptional<number>;
@@ -58,7 +50,8 @@ export class Paper extends Model<InferAttributes<Paper>, InferCreationAttributes
           allowNull: true,
           unique: true,
           set(value: string | null) {
-            this.setDataValue("doi", value ? normaliseDoi(value) : null);
+            // stored in normal form; a value that is not a DOI is kept as typed, so validation names it
+            this.setDataValue("doi", value ? stripDoi(value) : null);
           },
           validate: { is: { args: DOI_PATTERN, msg: "A DOI looks like 10.5555/abc-123" } },
         },

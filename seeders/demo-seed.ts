@@ -6,27 +6,18 @@ import type { Comparison, FitModel } from "@/models";
 import type { Database } from "@/lib/db/connection";
 import { createAudited } from "@/lib/db/audit";
 import { readRecheckSettings, rewriteFlagsForPaper } from "@/lib/db/flags";
-import { readPrintedNumber } from "@/lib/recheck/printed";
-import { COMPARISON_FIGURES, MODEL_FIGURES, textAttribute } from "@/models/figures";
+import { figureColumns } from "@/lib/curation/figure-columns";
+import { COMPARISON_FIGURES, MODEL_FIGURES } from "@/models/figures";
 import { DEMO_ACCOUNTS, DEMO_PASSWORD, demoCorpus } from "./demo/corpus";
 import type { DemoPaper } from "./demo/types";
+
+export { figureColumns };
 
 export interface SeedSummary {
   accountsCreated: number;
   papersCreated: number;
   comparisonsCreated: number;
   flagsWritten: number;
-}
-
-/** printed text and parsed value of each figure: `{chisqText: "9.20", chisq: 9.2, …}` */
-export function figureColumns(figures: Partial<Record<string, string>>, names: readonly string[]): Record<string, string | number | null> {
-  const columns: Record<string, string | number | null> = {};
-  for (const name of names) {
-    const printed = figures[name];
-    columns[textAttribute(name)] = printed ?? null;
-    columns[name] = printed ? (readPrintedNumber(printed.replace(/^[<>=≤≥]\s*/, ""))?.value ?? null) : null;
-  }
-  return columns;
 }
 
 function dayOf(index: number, offsetDays: number): Date {
