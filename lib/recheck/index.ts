@@ -6,3 +6,6 @@ export { FINDING_CATALOGUE, FINDING_CODES, type FindingCode, type CatalogueEntry
 export { readPrintedNumber, readPrintedP, readPrintedInteger, isBlank, type PrintedNumber, type PrintedP, type PRelation } from "./printed";
 export { validateComparison, validateModel } from "./parse";
 export { recheck, recheckModel } from "./recheck";
+export { chisqUpperTail, chisqCdf, chisqDensity, chisqUpperQuantile } from "./distributions/chisq";
+export { noncentralChisqCdf, noncentralCdfAtLeast, noncentralityForCdf } from "./distributions/noncentral";
+export { logGamma, regularizedGammaP, regularizedGammaQ } from "./distributions/gamma";

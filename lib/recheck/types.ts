@@ -99,7 +99,11 @@ export interface Interval {
   hi: number;
 }
 
-/** Which part of the comparison a finding is about. */
+/**
+ * Which part of the comparison a finding is about. "a" and "b" name the sheet columns the model was
+ * entered in (a_ / b_), also when the engine found them in the wrong order and swapped them for the
+ * comparison checks; a model checked on its own by recheckModel() is reported as "a".
+ */
 export type FindingSubject = "comparison" | "a" | "b";
 
 export interface Finding {

@@ -157,10 +157,10 @@ export function checkScaledDifference(ctx: DifferenceContext): void {
     for (const outcome of [chisqForm(a, b), loglikForm(a, b)]) {
       if (outcome.kind === "form") forms.push(outcome.form);
       else if (outcome.kind === "negative") negatives.push(`${outcome.name}: cd = ${show(outcome.cdValue, 4)}`);
-      else reasons.push(`${outcome.name} ${outcome.reason}`);
+      else reasons.push(outcome.name, outcome.reason);
     }
   } else {
-    reasons.push("the Satorra–Bentler 2001 difference applies to MLR/MLM; MLMV, WLSMV and ULSMV differences (e.g. DIFFTEST) need output papers do not print");
+    reasons.push("Satorra–Bentler 2001", "applies to MLR/MLM; MLMV, WLSMV and ULSMV differences (e.g. DIFFTEST) need output papers do not print");
   }
   const formP: Array<Interval | null> = [];
   for (const form of forms) {
@@ -216,7 +216,7 @@ export function checkScaledDifference(ctx: DifferenceContext): void {
         recomputed: plain,
       });
     } else {
-      report.skip("scaled-difference-mismatch", "comparison", reasons.join("; ") || "no scaled difference computable");
+      report.skip("scaled-difference-mismatch", "comparison", joinReasons(reasons));
     }
     // The paper's p came from its printed statistic.
     checkPOfStatistic(ctx, null);
@@ -234,7 +234,7 @@ export function checkScaledDifference(ctx: DifferenceContext): void {
   const printedP = c.dP;
   if (forms.length === 0) {
     if (c.method === "lrt" && plain !== null) checkPOfStatistic(ctx, plain);
-    else report.skip("scaled-difference-mismatch", "comparison", reasons.join("; ") || "no scaled difference computable");
+    else report.skip("scaled-difference-mismatch", "comparison", joinReasons(reasons));
     return;
   }
   if (formP.some((p) => p !== null && meets(printedP.lo, printedP.hi, p.lo, p.hi))) return;
@@ -247,6 +247,13 @@ export function checkScaledDifference(ctx: DifferenceContext): void {
     { reported: printedP.text, recomputed: formP[0] ?? { lo: 0, hi: 1 }, df: testDf },
     changed ? "error" : "warning",
   );
+}
+
+/** reasons holds (name, reason) pairs, joined only when a check is actually skipped. */
+function joinReasons(reasons: string[]): string {
+  const parts: string[] = [];
+  for (let i = 0; i + 1 < reasons.length; i += 2) parts.push(`${reasons[i]}: ${reasons[i + 1]}`);
+  return parts.length > 0 ? parts.join("; ") : "no scaled difference computable";
 }
 
 function describeForms(forms: ScaledForm[]): string {

@@ -13,40 +13,43 @@ const differenceOf = differenceOfImport;
 const meets = meetsImport;
 const showInterval = showIntervalImport;
 
-type FitVerdict = "fails" | "meets-or-unclear" | "unknown";
+/** Does the model miss a cutoff with the whole interval of its printed figure? */
+function fails(m: ParsedModel, cutoffs: RecheckSettings["fitCutoffs"]): boolean {
+  return (m.rmsea !== null && m.rmsea.lo > cutoffs.rmseaMax) || (m.cfi !== null && m.cfi.hi < cutoffs.cfiMin);
+}
 
-function fitVerdict(m: ParsedModel, cutoffs: RecheckSettings["fitCutoffs"]): { verdict: FitVerdict; why: string } {
-  if (m.rmsea === null && m.cfi === null) return { verdict: "unknown", why: "" };
+function whyFails(m: ParsedModel, cutoffs: RecheckSettings["fitCutoffs"]): string {
   const reasons: string[] = [];
   if (m.rmsea !== null && m.rmsea.lo > cutoffs.rmseaMax) reasons.push(`RMSEA = ${m.rmsea.text} > ${cutoffs.rmseaMax}`);
   if (m.cfi !== null && m.cfi.hi < cutoffs.cfiMin) reasons.push(`CFI = ${m.cfi.text} < ${cutoffs.cfiMin}`);
-  return reasons.length > 0 ? { verdict: "fails", why: reasons.join(", ") } : { verdict: "meets-or-unclear", why: "" };
+  return reasons.join(", ");
 }
 
 /** Neither model meets the configured cutoffs (common practice: RMSEA ≤ .08, CFI ≥ .90). */
 export function checkPoorFitBoth(a: ParsedModel, b: ParsedModel, settings: RecheckSettings, report: Report): void {
-  const va = fitVerdict(a, settings.fitCutoffs);
-  const vb = fitVerdict(b, settings.fitCutoffs);
-  if (va.verdict === "unknown" || vb.verdict === "unknown") {
+  if ((a.rmsea === null && a.cfi === null) || (b.rmsea === null && b.cfi === null)) {
     report.skip("poor-fit-both", "comparison", "needs RMSEA or CFI for both models");
     return;
   }
-  if (va.verdict === "fails" && vb.verdict === "fails") {
-    report.add("poor-fit-both", "comparison", `neither model meets the fit cutoffs: restricted model ${va.why}; free model ${vb.why}`, {
-      rmseaMax: settings.fitCutoffs.rmseaMax,
-      cfiMin: settings.fitCutoffs.cfiMin,
+  const cutoffs = settings.fitCutoffs;
+  if (fails(a, cutoffs) && fails(b, cutoffs)) {
+    report.add("poor-fit-both", "comparison", `neither model meets the fit cutoffs: restricted model ${whyFails(a, cutoffs)}; free model ${whyFails(b, cutoffs)}`, {
+      rmseaMax: cutoffs.rmseaMax,
+      cfiMin: cutoffs.cfiMin,
     });
   }
 }
 
 /** The printed Δ, else the difference of the printed values (restricted − free). */
-function deltaOf(printed: PrintedNumber | null, a: PrintedNumber | null, b: PrintedNumber | null): { interval: Interval; text: string } | null {
-  if (printed !== null) return { interval: { lo: printed.lo, hi: printed.hi }, text: printed.text };
-  if (a !== null && b !== null) {
-    const d = differenceOf(a, b);
-    return { interval: d, text: `${a.text} − ${b.text} = ${showInterval(d.lo, d.hi, 3)}` };
-  }
+function deltaOf(printed: PrintedNumber | null, a: PrintedNumber | null, b: PrintedNumber | null): Interval | null {
+  if (printed !== null) return { lo: printed.lo, hi: printed.hi };
+  if (a !== null && b !== null) return differenceOf(a, b);
   return null;
+}
+
+/** How a Δ was obtained, for messages. */
+function deltaText(printed: PrintedNumber | null, a: PrintedNumber | null, b: PrintedNumber | null, d: Interval): string {
+  return printed !== null ? printed.text : `${a?.text} − ${b?.text} = ${showInterval(d.lo, d.hi, 3)}`;
 }
 
 /** Invariance claimed although ΔCFI ≤ −.01 (Cheung & Rensvold 2002) or ΔRMSEA ≥ .015 (Chen 2007). */
@@ -63,12 +66,12 @@ export function checkInvarianceClaim(c: ParsedComparison, a: ParsedModel, b: Par
   }
   const { dCfi: cfiCut, dRmsea: rmseaCut } = settings.invarianceCutoffs;
   const reasons: string[] = [];
-  if (dCfi !== null && dCfi.interval.hi <= cfiCut) reasons.push(`ΔCFI = ${dCfi.text} ≤ ${cfiCut} (Cheung & Rensvold 2002)`);
-  if (dRmsea !== null && dRmsea.interval.lo >= rmseaCut) reasons.push(`ΔRMSEA = ${dRmsea.text} ≥ ${rmseaCut} (Chen 2007)`);
+  if (dCfi !== null && dCfi.hi <= cfiCut) reasons.push(`ΔCFI = ${deltaText(c.dCfi, a.cfi, b.cfi, dCfi)} ≤ ${cfiCut} (Cheung & Rensvold 2002)`);
+  if (dRmsea !== null && dRmsea.lo >= rmseaCut) reasons.push(`ΔRMSEA = ${deltaText(c.dRmsea, a.rmsea, b.rmsea, dRmsea)} ≥ ${rmseaCut} (Chen 2007)`);
   if (reasons.length > 0) {
     report.add("invariance-cutoff-exceeded", "comparison", `invariance is claimed although ${reasons.join(" and ")}`, {
-      ...(dCfi ? { dCfi: dCfi.interval } : {}),
-      ...(dRmsea ? { dRmsea: dRmsea.interval } : {}),
+      ...(dCfi ? { dCfi } : {}),
+      ...(dRmsea ? { dRmsea } : {}),
       cfiCutoff: cfiCut,
       rmseaCutoff: rmseaCut,
     });

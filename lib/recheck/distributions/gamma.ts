@@ -114,7 +114,12 @@ export function regularizedGammaP(a: number, x: number): number {
   if (!(a > 0) || Number.isNaN(x)) return Number.NaN;
   if (x <= 0) return 0;
   if (x === Infinity) return 1;
-  if (x < a + 1) return Math.min(1, gammaPrefactor(a, x) * lowerSeries(a, x));
-  const q = gammaPrefactor(a, x) * upperContinuedFraction(a, x);
+  return lowerWithPrefactor(a, x, gammaPrefactor(a, x));
+}
+
+/** P(a, x) for x > 0 when the caller already holds gammaPrefactor(a, x) (the noncentral series does). */
+export function lowerWithPrefactor(a: number, x: number, prefactor: number): number {
+  if (x < a + 1) return Math.min(1, prefactor * lowerSeries(a, x));
+  const q = prefactor * upperContinuedFraction(a, x);
   return q >= 1 ? 0 : 1 - q;
 }

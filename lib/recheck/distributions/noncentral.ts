@@ -5,11 +5,12 @@
 // the incomplete-gamma terms obtained by recurrence, but started at the Poisson mode and summed both
 // ways (Benton & Krishnamoorthy 2003) so large noncentralities neither underflow e^(−λ/2) nor need
 // thousands of terms. Absolute error below ~1e-13, ample for locating .05 / .95 points.
-import { gammaPrefactor as gammaPrefactorImport, regularizedGammaP as regularizedGammaPImport } from "./gamma";
+import { gammaPrefactor as gammaPrefactorImport, lowerWithPrefactor as lowerWithPrefactorImport, regularizedGammaP as regularizedGammaPImport } from "./gamma";
 
 // Imported functions bound once: under tsx (CommonJS output, as the CLI runs) each call to an import
 // otherwise goes through an export getter, which showed up in the engine benchmark's profile.
 const gammaPrefactor = gammaPrefactorImport;
+const lowerWithPrefactor = lowerWithPrefactorImport;
 const regularizedGammaP = regularizedGammaPImport;
 
 const TAIL = 1e-13;
@@ -26,9 +27,10 @@ export function noncentralChisqCdf(x: number, df: number, lambda: number): numbe
   const mode = Math.floor(mu);
   // Poisson weight at the mode: μ^m e^−μ / m! = gammaPrefactor(m + 1, μ) / μ.
   const weightAtMode = gammaPrefactor(mode + 1, mu) / mu;
-  const pAtMode = regularizedGammaP(a + mode, y);
+  const prefactor = gammaPrefactor(a + mode, y);
+  const pAtMode = y > 0 ? lowerWithPrefactor(a + mode, y, prefactor) : 0;
   // t_j = y^(a+j) e^−y / Γ(a+j+1), so that P(a+j+1, y) = P(a+j, y) − t_j.
-  const termAtMode = gammaPrefactor(a + mode, y) / (a + mode);
+  const termAtMode = prefactor / (a + mode);
 
   let sum = weightAtMode * pAtMode;
 
@@ -79,8 +81,9 @@ export function noncentralCdfAtLeast(x: number, df: number, lambda: number, targ
   const mu = lambda / 2;
   const mode = Math.floor(mu);
   const weightAtMode = gammaPrefactor(mode + 1, mu) / mu;
-  const pAtMode = regularizedGammaP(a + mode, y);
-  const termAtMode = gammaPrefactor(a + mode, y) / (a + mode);
+  const prefactor = gammaPrefactor(a + mode, y);
+  const pAtMode = lowerWithPrefactor(a + mode, y, prefactor);
+  const termAtMode = prefactor / (a + mode);
   let sum = weightAtMode * pAtMode;
   let seen = weightAtMode;
   let wUp = weightAtMode;
