@@ -1,7 +1,14 @@
 // Turns the printed cells of one comparison into numbers with their rounding intervals, collecting a
 // FieldError (named by its DESIGN §5 sheet column) for every cell that cannot be read. Empty cells are
 // "not reported" (null), never zero.
-import { isBlank as isBlankImport, readPrintedInteger as readPrintedIntegerImport, readPrintedNumber as readPrintedNumberImport, scanP as scanPImport, type PrintedNumber, type PrintedP } from "./printed";
+import {
+  isBlank as isBlankImport,
+  readPrintedInteger as readPrintedIntegerImport,
+  readPrintedNumber as readPrintedNumberImport,
+  scanP as scanPImport,
+  type PrintedNumber,
+  type PrintedP,
+} from "./printed";
 import {
   ESTIMATORS,
   INVARIANCE_CLAIMS,

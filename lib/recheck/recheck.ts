@@ -4,11 +4,29 @@
 // columns, "b" = the b_ columns), so a coder can find the cell even when the models were entered in the
 // wrong order. Comparison-level checks run on the models in restricted/free order. A model checked on
 // its own by recheckModel() is reported as subject "a".
-import { checkCriteriaArithmetic as checkCriteriaArithmeticImport, checkPreference as checkPreferenceImport } from "./checks/criteria";
-import { checkDfDifference as checkDfDifferenceImport, checkNegativeDifference as checkNegativeDifferenceImport, checkPlainDifference as checkPlainDifferenceImport, checkScaledDifference as checkScaledDifferenceImport } from "./checks/difference";
-import { checkDeltaFit as checkDeltaFitImport, checkInvarianceClaim as checkInvarianceClaimImport, checkPoorFitBoth as checkPoorFitBothImport } from "./checks/fit-rules";
+import {
+  checkCriteriaArithmetic as checkCriteriaArithmeticImport,
+  checkPreference as checkPreferenceImport,
+} from "./checks/criteria";
+import {
+  checkDfDifference as checkDfDifferenceImport,
+  checkNegativeDifference as checkNegativeDifferenceImport,
+  checkPlainDifference as checkPlainDifferenceImport,
+  checkScaledDifference as checkScaledDifferenceImport,
+} from "./checks/difference";
+import {
+  checkDeltaFit as checkDeltaFitImport,
+  checkInvarianceClaim as checkInvarianceClaimImport,
+  checkPoorFitBoth as checkPoorFitBothImport,
+} from "./checks/fit-rules";
 import { checkModel as checkModelImport } from "./checks/model";
-import { parseComparison as parseComparisonImport, parseModel as parseModelImport, parseSample as parseSampleImport, type ParsedComparison, type ParsedModel } from "./parse";
+import {
+  parseComparison as parseComparisonImport,
+  parseModel as parseModelImport,
+  parseSample as parseSampleImport,
+  type ParsedComparison,
+  type ParsedModel,
+} from "./parse";
 import { Report } from "./report";
 import { ENGINE_VERSION, resolveSettings as resolveSettingsImport } from "./settings";
 import type { ComparisonInput, FieldError, ModelInput, RecheckOutcome, RecheckSettings, SampleInput } from "./types";

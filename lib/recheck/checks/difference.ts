@@ -2,14 +2,30 @@
 // Satorra–Bentler scaled difference. A and B are already in restricted/free order here, and every
 // printed Δ is read as restricted − free.
 import { chisqUpperTail as chisqUpperTailImport } from "../distributions/chisq";
-import { differenceOf as differenceOfImport, meets as meetsImport, show as showImport, showInterval as showIntervalImport, showPInterval as showPIntervalImport } from "../interval";
+import {
+  differenceOf as differenceOfImport,
+  meets as meetsImport,
+  show as showImport,
+  showInterval as showIntervalImport,
+  showPInterval as showPIntervalImport,
+} from "../interval";
 import type { ParsedComparison, ParsedModel } from "../parse";
 import type { PrintedNumber, PrintedP } from "../printed";
 import type { Report } from "../report";
 import type { Interval } from "../types";
-import { conclusionChanged as conclusionChangedImport, isMlFamily as isMlFamilyImport, judgeP as judgePImport, upperTailInterval as upperTailIntervalImport } from "./common";
+import {
+  conclusionChanged as conclusionChangedImport,
+  isMlFamily as isMlFamilyImport,
+  judgeP as judgePImport,
+  upperTailInterval as upperTailIntervalImport,
+} from "./common";
 import { pText as pTextImport } from "./model";
-import { chisqForm as chisqFormImport, loglikForm as loglikFormImport, sbApplies as sbAppliesImport, type ScaledForm } from "./scaled";
+import {
+  chisqForm as chisqFormImport,
+  loglikForm as loglikFormImport,
+  sbApplies as sbAppliesImport,
+  type ScaledForm,
+} from "./scaled";
 
 // Imported functions bound once: under tsx (CommonJS output, as the CLI runs) each call to an import
 // otherwise goes through an export getter, which showed up in the engine benchmark's profile.

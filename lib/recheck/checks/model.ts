@@ -7,7 +7,18 @@ import { judgeP as judgePImport, modelName as modelNameImport, upperTailInterval
 import { checkModelCriteria as checkModelCriteriaImport } from "./criteria";
 import { scaledStatistic as scaledStatisticImport, scalingFactor as scalingFactorImport } from "./derived";
 import { checkFitIndices as checkFitIndicesImport } from "./fit-indices";
-import { describeInterval as describeIntervalImport, describePoint as describePointImport, intervalMeets as intervalMeetsImport, matchRmseaInterval as matchRmseaIntervalImport, matchRmseaPoint as matchRmseaPointImport, primaryConvention as primaryConventionImport, recomputeRmseaInterval as recomputeRmseaIntervalImport, rmseaConventions as rmseaConventionsImport, type RmseaConvention, type RmseaInputs } from "./rmsea";
+import {
+  describeInterval as describeIntervalImport,
+  describePoint as describePointImport,
+  intervalMeets as intervalMeetsImport,
+  matchRmseaInterval as matchRmseaIntervalImport,
+  matchRmseaPoint as matchRmseaPointImport,
+  primaryConvention as primaryConventionImport,
+  recomputeRmseaInterval as recomputeRmseaIntervalImport,
+  rmseaConventions as rmseaConventionsImport,
+  type RmseaConvention,
+  type RmseaInputs,
+} from "./rmsea";
 
 // Imported functions bound once: under tsx (CommonJS output, as the CLI runs) each call to an import
 // otherwise goes through an export getter, which showed up in the engine benchmark's profile.

@@ -10,7 +10,10 @@
 // Checking a printed bound needs no root finding: F falls in λ and rises in χ², so the printed bound's
 // interval meets the recomputed one iff the CDF condition changes sign across it (two CDF evaluations).
 // Roots are only found, lazily, to report the recomputed interval when nothing matched.
-import { noncentralCdfAtLeast as noncentralCdfAtLeastImport, noncentralityForCdf as noncentralityForCdfImport } from "../distributions/noncentral";
+import {
+  noncentralCdfAtLeast as noncentralCdfAtLeastImport,
+  noncentralityForCdf as noncentralityForCdfImport,
+} from "../distributions/noncentral";
 import { meets as meetsImport, show as showImport, showInterval as showIntervalImport } from "../interval";
 import type { PrintedNumber } from "../printed";
 import type { Interval } from "../types";

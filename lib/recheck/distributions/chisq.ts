@@ -1,6 +1,10 @@
 // Central chi-square distribution through the regularised incomplete gamma functions:
 // P(X > x) = Q(df/2, x/2), P(X ≤ x) = P(df/2, x/2) (e.g. Johnson, Kotz & Balakrishnan 1994, ch. 18).
-import { gammaPrefactor as gammaPrefactorImport, regularizedGammaP as regularizedGammaPImport, regularizedGammaQ as regularizedGammaQImport } from "./gamma";
+import {
+  gammaPrefactor as gammaPrefactorImport,
+  regularizedGammaP as regularizedGammaPImport,
+  regularizedGammaQ as regularizedGammaQImport,
+} from "./gamma";
 
 // Imported functions bound once: under tsx (CommonJS output, as the CLI runs) each call to an import
 // otherwise goes through an export getter, which showed up in the engine benchmark's profile.

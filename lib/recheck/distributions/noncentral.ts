@@ -5,7 +5,11 @@
 // the incomplete-gamma terms obtained by recurrence, but started at the Poisson mode and summed both
 // ways (Benton & Krishnamoorthy 2003) so large noncentralities neither underflow e^(−λ/2) nor need
 // thousands of terms. Absolute error below ~1e-13, ample for locating .05 / .95 points.
-import { gammaPrefactor as gammaPrefactorImport, lowerWithPrefactor as lowerWithPrefactorImport, regularizedGammaP as regularizedGammaPImport } from "./gamma";
+import {
+  gammaPrefactor as gammaPrefactorImport,
+  lowerWithPrefactor as lowerWithPrefactorImport,
+  regularizedGammaP as regularizedGammaPImport,
+} from "./gamma";
 
 // Imported functions bound once: under tsx (CommonJS output, as the CLI runs) each call to an import
 // otherwise goes through an export getter, which showed up in the engine benchmark's profile.
