@@ -8,7 +8,11 @@ export interface NavItem {
   minRole?: Role;
 }
 
-export const NAV_ITEMS: NavItem[] = [{ href: "/", label: "Overview" }];
+export const NAV_ITEMS: NavItem[] = [
+  { href: "/", label: "Overview" },
+  { href: "/explore", label: "Explore" },
+  { href: "/insights", label: "Insights" },
+];
 
 /** Entries of the signed-in person's menu, by the role they need. */
 export const ACCOUNT_NAV_ITEMS: NavItem[] = [

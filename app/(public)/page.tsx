@@ -21,6 +21,15 @@ export default async function LandingPage() {
           chi-square difference, p-value, scaled difference, RMSEA, CFI and information criterion is recomputed from
           the printed numbers with rounding-aware tolerance; curators verify each entry against the paper.
         </p>
+        <form action="/explore" method="get" role="search" className="flex max-w-xl gap-2">
+          <label htmlFor="landing-q" className="sr-only">
+            Search the verified comparisons
+          </label>
+          <input id="landing-q" name="q" type="search" maxLength={200} placeholder="Search titles, authors, journals, DOIs, model labels" className="w-full rounded border border-rule-strong bg-paper-raised px-2.5 py-1.5 text-sm" />
+          <button type="submit" className="rounded border border-ledger bg-ledger px-3 py-1.5 text-sm font-medium text-paper-raised hover:bg-ledger-deep">
+            Search
+          </button>
+        </form>
       </section>
 
       <section aria-labelledby="corpus-figures">

@@ -64,6 +64,16 @@ export const ROUTE_MATRIX: RouteRow[] = [
   },
   { file: "account/apply/route.ts", method: "POST", access: "public", path: "/api/account/apply", body: {} },
   { file: "account/password-reset/route.ts", method: "POST", access: "public", path: "/api/account/password-reset", body: {} },
+  // curation (issue 5)
+  { file: "doi/route.ts", method: "GET", access: "contributor", path: "/api/doi" },
+  { file: "curation/citations/route.ts", method: "POST", access: "contributor", path: "/api/curation/citations", body: {} },
+  { file: "curation/papers/[id]/route.ts", method: "PUT", access: "contributor", path: "/api/curation/papers/999999", params: { id: "999999" }, body: {} },
+  { file: "papers/[id]/route.ts", method: "GET", access: "public", path: "/api/papers/999999", params: { id: "999999" }, unguarded: "read-only; answers verified papers only, names of coder and verifier but no account details" },
+  { file: "admin/recheck/route.ts", method: "GET", access: "admin", path: "/api/admin/recheck" },
+  { file: "admin/recheck/route.ts", method: "POST", access: "admin", path: "/api/admin/recheck", body: {} },
+  { file: "comparisons/route.ts", method: "GET", access: "public", path: "/api/comparisons", unguarded: "read-only search of verified entries; mine=1 and other entry states go through the guard (lib/search/scope.ts)" },
+  { file: "stats/route.ts", method: "GET", access: "public", path: "/api/stats", unguarded: "read-only statistics of verified entries; wider scopes go through the guard (lib/search/scope.ts)" },
+  { file: "openapi.json/route.ts", method: "GET", access: "public", path: "/api/openapi.json", unguarded: "a static description of the API; reads no data" },
 ];
 
 export const ACTION_MATRIX: ActionRow[] = [
@@ -78,4 +88,14 @@ export const ACTION_MATRIX: ActionRow[] = [
   { file: "(admin)/admin/people/actions.ts", name: "reactivateAccount", access: "admin" },
   { file: "(admin)/admin/people/actions.ts", name: "changeAccountRole", access: "admin" },
   { file: "(admin)/admin/outbox/actions.ts", name: "retryOutboxMessage", access: "admin" },
+  // curation (issue 5)
+  { file: "(workbench)/workbench/actions.ts", name: "createPaperFromForm", access: "contributor" },
+  { file: "(workbench)/workbench/actions.ts", name: "submitForVerification", access: "contributor" },
+  { file: "(workbench)/review/actions.ts", name: "verifyPaperEntry", access: "curator" },
+  { file: "(workbench)/review/actions.ts", name: "returnPaperEntry", access: "curator" },
+  { file: "(workbench)/review/actions.ts", name: "recordFindingVerdict", access: "curator" },
+  { file: "(public)/papers/[id]/actions.ts", name: "sendPaperCorrection", access: "public" },
+  { file: "(public)/explore/actions.ts", name: "saveSearch", access: "reader" },
+  { file: "(public)/explore/actions.ts", name: "removeSavedSearch", access: "reader" },
+  { file: "(public)/explore/actions.ts", name: "changeSearchAlerts", access: "reader" },
 ];

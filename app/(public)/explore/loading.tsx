@@ -1,0 +1,7 @@
+export default function ExploreLoading() {
+  return (
+    <p role="status" className="text-ink-faint">
+      Loading the search…
+    </p>
+  );
+}

@@ -1,0 +1,14 @@
+"use client";
+
+import { Notice } from "@/components/ui/notice";
+
+export default function InsightsError({ reset }: { error: Error; reset: () => void }) {
+  return (
+    <Notice tone="error" title="The statistics could not be computed.">
+      Something went wrong on our side; it has been logged.{" "}
+      <button type="button" className="underline" onClick={reset}>
+        Try again
+      </button>
+    </Notice>
+  );
+}
