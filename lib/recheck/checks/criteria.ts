@@ -40,7 +40,7 @@ export function checkModelCriteria(m: ParsedModel, subject: "a" | "b", n: number
     // Some programs print χ²-based AIC variants (χ² + 2q; χ² − 2df); a printed value is consistent
     // when any convention reproduces it.
     if (m.chisq !== null) conventions.push({ name: "χ² + 2q", value: { lo: m.chisq.lo + 2 * q, hi: m.chisq.hi + 2 * q } });
-    if (m.chisq !== null && m.df !== null) conventions.push({ name: "χ² − 2df", value: { lo: m.chisq.lo - 2 * m.df, hi: m.chisq.hi - 2 * m.df } });
+    if (m.chisq !== null && m.df !== null && m.df >= 0) conventions.push({ name: "χ² − 2df", value: { lo: m.chisq.lo - 2 * m.df, hi: m.chisq.hi - 2 * m.df } });
     const aic = m.aic;
     judgeCriterion(report, subject, () => `${modelName(subject, m.label)}: reported AIC = ${aic.text}, but −2·(${ll.text}) + 2·${q}`, aic, conventions, subject === "a" ? "a.aicFromLoglik" : "b.aicFromLoglik");
   }
@@ -52,7 +52,7 @@ export function checkModelCriteria(m: ParsedModel, subject: "a" | "b", n: number
     const lnN = Math.log(n);
     const conventions: Convention[] = [{ name: "−2LL + q·ln N", value: { lo: -2 * ll.hi + q * lnN, hi: -2 * ll.lo + q * lnN } }];
     if (m.chisq !== null) conventions.push({ name: "χ² + q·ln N", value: { lo: m.chisq.lo + q * lnN, hi: m.chisq.hi + q * lnN } });
-    if (m.chisq !== null && m.df !== null) conventions.push({ name: "χ² − df·ln N", value: { lo: m.chisq.lo - m.df * lnN, hi: m.chisq.hi - m.df * lnN } });
+    if (m.chisq !== null && m.df !== null && m.df >= 0) conventions.push({ name: "χ² − df·ln N", value: { lo: m.chisq.lo - m.df * lnN, hi: m.chisq.hi - m.df * lnN } });
     const bic = m.bic;
     judgeCriterion(report, subject, () => `${modelName(subject, m.label)}: reported BIC = ${bic.text}, but −2·(${ll.text}) + ${q}·ln ${n}`, bic, conventions, subject === "a" ? "a.bicFromLoglik" : "b.bicFromLoglik");
   }

@@ -228,6 +228,10 @@ function checkDfRecount(ctx: ModelCheckContext): void {
     report.skip("df-recount-mismatch", subject, "needs df, npar and n_observed");
     return;
   }
+  if (m.df < 0) {
+    report.skip("df-recount-mismatch", subject, "negative df");
+    return;
+  }
   const p = m.nObserved;
   const k = m.nFixedX ?? 0;
   const g = sample.groups;
@@ -244,7 +248,11 @@ function checkDfRecount(ctx: ModelCheckContext): void {
   }
   report.set(KEYS[subject].dfRecount, recounts[0]);
   const how = readings
-    .map((means, i) => `${g > 1 ? `${g}·` : ""}(${p}·${p + 1}/2${means ? ` + ${p}` : ""})${k > 0 ? ` − fixed-x moments` : ""} − ${m.npar} = ${recounts[i]}${m.meanStructure === null ? (means ? " with means" : " without means") : ""}`)
+    .map((means, i) => {
+      const fixedX = k > 0 ? ` − ${k}·${k + 1}/2${means ? ` − ${k}` : ""}` : "";
+      const reading = m.meanStructure === null ? (means ? " with means" : " without means") : "";
+      return `${g > 1 ? `${g}·` : ""}(${p}·${p + 1}/2${means ? ` + ${p}` : ""}${fixedX}) − ${m.npar} = ${recounts[i]}${reading}`;
+    })
     .join("; ");
   report.add("df-recount-mismatch", subject, `${modelName(subject, m.label)}: reported df = ${m.df}, but moments minus free parameters give ${how}`, {
     reported: m.df,

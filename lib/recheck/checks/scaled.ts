@@ -49,8 +49,8 @@ function classify(name: ScaledFormName, cd: Interval, cdValue: number, delta: In
 
 export function chisqForm(a: ParsedModel, b: ParsedModel): FormOutcome {
   const name: ScaledFormName = "chi-square form";
-  if (a.chisq === null || b.chisq === null || a.df === null || b.df === null) {
-    return { kind: "unavailable", name, reason: "needs both models' ML χ² and df" };
+  if (a.chisq === null || b.chisq === null || a.df === null || b.df === null || a.df < 0 || b.df < 0) {
+    return { kind: "unavailable", name, reason: "needs both models' ML χ² and (non-negative) df" };
   }
   const dfA = a.df;
   const dfB = b.df;
