@@ -110,7 +110,7 @@ function runComparison(c: ParsedComparison, settings: RecheckSettings, report: R
   const [restricted, free] = orderModels(c, report);
 
   if ((c.method === "lrt" || c.method === "scaled_lrt") && c.nested === "no") {
-    report.add("lrt-on-non-nested", "comparison", `a ${c.method} comparison of models recorded as not nested: the chi-square difference is only a test for nested models`, {
+    report.add("lrt-on-non-nested", "comparison", `${c.method === "scaled_lrt" ? "a" : "an"} ${c.method} comparison of models recorded as not nested: the chi-square difference is only a test for nested models`, {
       method: c.method,
       nested: c.nested,
     });

@@ -98,8 +98,10 @@ interface CriterionContext {
   dChisq: Interval | null;
 }
 
-function chiText(dChisq: Interval | null): string {
-  return dChisq ? `Δχ² = ${showInterval(dChisq.lo, dChisq.hi, 2)}` : "";
+/** "Δχ² − 2·Δdf = 22.11 − 2·6" (AIC) or "Δχ² − Δdf·ln N = 22.11 − 6·ln 301" (BIC). */
+function expectedText(label: "AIC" | "BIC", dChisq: Interval | null, factor: number, unit: string): string {
+  const chi = dChisq ? showInterval(dChisq.lo, dChisq.hi, 2) : "?";
+  return label === "AIC" ? `Δχ² − 2·Δdf = ${chi} − 2·${unit}` : `Δχ² − Δdf·ln N = ${chi} − ${factor}·${unit}`;
 }
 
 /** One criterion: the printed pair and Δ against Δχ² − penalty, and the printed Δ against the pair. */
@@ -122,7 +124,7 @@ function checkCriterion(
       report.add(
         "information-criteria-inconsistent",
         "comparison",
-        `${label}_A − ${label}_B = ${pa.text} − ${pb.text} = ${showInterval(pair.lo, pair.hi, 2)}, but ${chiText(dChisq)} − ${penaltyFactor}·${penaltyUnit} = ${showInterval(expected.lo, expected.hi, 2)}`,
+        `${label}_A − ${label}_B = ${pa.text} − ${pb.text} = ${showInterval(pair.lo, pair.hi, 2)}, but ${expectedText(label, dChisq, penaltyFactor, penaltyUnit)} = ${showInterval(expected.lo, expected.hi, 2)}`,
         { reported: showInterval(pair.lo, pair.hi, 2), recomputed: expected, criterion: label },
       );
     }
@@ -138,7 +140,7 @@ function checkCriterion(
     report.add(
       "information-criteria-inconsistent",
       "comparison",
-      `reported Δ${label} = ${printedDelta.text}, but ${chiText(dChisq)} − ${penaltyFactor}·${penaltyUnit} = ${showInterval(expected.lo, expected.hi, 2)}`,
+      `reported Δ${label} = ${printedDelta.text}, but ${expectedText(label, dChisq, penaltyFactor, penaltyUnit)} = ${showInterval(expected.lo, expected.hi, 2)}`,
       { reported: printedDelta.text, recomputed: expected, criterion: label },
     );
   }

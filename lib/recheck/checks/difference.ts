@@ -72,7 +72,7 @@ export function checkDfDifference(c: ParsedComparison, a: ParsedModel, b: Parsed
   const testDf = modelDdf ?? c.dDf;
   if (c.method !== null && TEST_METHODS.has(c.method) && testDf === 0) {
     const how = modelDdf !== null ? `both models have df = ${a.df}` : "the reported Δdf is 0";
-    report.add("zero-df-difference", "comparison", `${how}: a ${c.method} comparison needs Δdf > 0, so no difference test exists`, { dDf: 0 });
+    report.add("zero-df-difference", "comparison", `${how}: ${c.method === "scaled_lrt" ? "a" : "an"} ${c.method} comparison needs Δdf > 0, so no difference test exists`, { dDf: 0 });
   }
   return testDf !== null && testDf > 0 ? testDf : null;
 }
