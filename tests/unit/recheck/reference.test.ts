@@ -61,6 +61,26 @@ describe("each model's own figures recomputed (lavaan fitMeasures)", () => {
     expect(Math.abs(ci.hi - num(f["rmsea.ci.upper"]))).toBeLessThan(1e-6);
   });
 
+  it.each(reference.rmsea_ci.map((r) => [r.label, r] as const))("rmsea_ci %s: inverting the noncentral χ² gives R's exact bounds", (_label, r) => {
+    const convention = primaryConvention({
+      n: r.N,
+      groups: r.G,
+      df: r.df,
+      chisq: { lo: r.chisq, hi: r.chisq },
+      scaled: null,
+      scaling: null,
+      robust: false,
+      chisqValue: r.chisq,
+      scaledValue: null,
+      scalingValue: null,
+    });
+    if (!convention) throw new Error("no convention");
+    const ci = recomputeRmseaInterval(convention);
+    // Source: rmsea_ci[].hand_tight_tol (R uniroot at tolerance 1e-13 on pchisq(chisq, df, ncp)).
+    expect(Math.abs(ci.lo - r.hand_tight_tol.ci_lower)).toBeLessThan(1e-9);
+    expect(Math.abs(ci.hi - r.hand_tight_tol.ci_upper)).toBeLessThan(1e-9);
+  });
+
   it.each(MLR_MODELS)("%s: scaled and robust RMSEA and their intervals match lavaan", (id) => {
     const f = model(id).fit_measures;
     const conventions = rmseaConventions(rmseaInputs(id, "scaled"));
