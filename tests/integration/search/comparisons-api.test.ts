@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
-import { Op, QueryTypes } from "sequelize";
+import { Op, QueryTypes, type WhereOptions } from "sequelize";
 import { seedDemo } from "@/seeders/demo-seed";
 import { createTestDatabase, type TestDatabase } from "../../support/test-db";
 
@@ -29,7 +29,7 @@ async function get(query: string, headers: Record<string, string> = {}) {
 }
 
 /** verified comparisons with an optional extra condition, counted by Sequelize from the tables */
-async function countVerified(where: { comparison?: object; paper?: object; flag?: object; model?: object } = {}) {
+async function countVerified(where: { comparison?: WhereOptions; paper?: object; flag?: object } = {}) {
   const { models } = database;
   const include: object[] = [{ model: models.Paper, as: "paper", attributes: [], where: { state: "verified", ...(where.paper ?? {}) }, required: true }];
   if (where.flag) include.push({ model: models.Flag, as: "flags", attributes: [], where: where.flag, required: true });
