@@ -178,14 +178,10 @@ export function checkScaledDifference(ctx: DifferenceContext): void {
   } else {
     reasons.push("Satorra–Bentler 2001", "applies to MLR/MLM; MLMV, WLSMV and ULSMV differences (e.g. DIFFTEST) need output papers do not print");
   }
-  const formP: Array<Interval | null> = [];
   for (const form of forms) {
-    const p = testDf === null ? null : upperTailInterval(form.statistic, testDf);
-    formP.push(p);
     const keys = form.name === "chi-square form" ? SB_KEYS : SB_LOGLIK_KEYS;
     report.set(keys.cd, form.cd);
     report.set(keys.statistic, form.statistic);
-    if (p !== null) report.set(keys.p, p);
   }
   if (forms.length === 0 && negatives.length > 0) {
     report.add(
@@ -200,7 +196,6 @@ export function checkScaledDifference(ctx: DifferenceContext): void {
   const naive = a.chisqScaled !== null && b.chisqScaled !== null ? differenceOf(a.chisqScaled, b.chisqScaled) : null;
   const plain = a.chisq !== null && b.chisq !== null ? differenceOf(a.chisq, b.chisq) : null;
   if (plain !== null) report.set("dChisq", plain);
-
 
   if (c.dChisq !== null) {
     const d = c.dChisq;
@@ -218,7 +213,8 @@ export function checkScaledDifference(ctx: DifferenceContext): void {
       report.set("differenceBasis", "normal-theory χ² (as the method lrt says)");
     } else if (forms.length > 0) {
       const impliedP = c.dP ?? null;
-      const changed = testDf !== null && formP.every((p) => p !== null && changedAgainst(impliedP, d, testDf, p, c.alpha));
+      const formP = testDf === null ? null : formPValues(forms, testDf, report);
+      const changed = testDf !== null && formP !== null && formP.every((p) => changedAgainst(impliedP, d, testDf, p, c.alpha));
       report.add(
         "scaled-difference-mismatch",
         "comparison",
@@ -253,16 +249,31 @@ export function checkScaledDifference(ctx: DifferenceContext): void {
     else report.skip("scaled-difference-mismatch", "comparison", joinReasons(reasons));
     return;
   }
-  if (formP.some((p) => p !== null && meets(printedP.lo, printedP.hi, p.lo, p.hi))) return;
-  const changed = formP.every((p) => p !== null && conclusionChanged(printedP, p.lo, p.hi, c.alpha));
-  const pTextAll = forms.map((form, i) => `p = ${showPInterval(formP[i]?.lo ?? 0, formP[i]?.hi ?? 0)} (${form.name}, T = ${showInterval(form.statistic.lo, form.statistic.hi, 2)})`).join(" or ");
+  const formP = formPValues(forms, testDf, report);
+  if (formP.some((p) => meets(printedP.lo, printedP.hi, p.lo, p.hi))) return;
+  const changed = formP.every((p) => conclusionChanged(printedP, p.lo, p.hi, c.alpha));
+  const pTextAll = forms.map((form, i) => `p = ${showPInterval(formP[i].lo, formP[i].hi)} (${form.name}, T = ${showInterval(form.statistic.lo, form.statistic.hi, 2)})`).join(" or ");
   report.add(
     "scaled-difference-mismatch",
     "comparison",
     `reported p ${pText(printedP.text)}, but the Satorra–Bentler (2001) difference with Δdf = ${testDf} gives ${pTextAll}${changed ? `; the conclusion at α = ${c.alpha} changes` : ""}`,
-    { reported: printedP.text, recomputed: formP[0] ?? { lo: 0, hi: 1 }, df: testDf },
+    { reported: printedP.text, recomputed: formP[0], df: testDf },
     changed ? "error" : "warning",
   );
+}
+
+/**
+ * The p of each scaled form, computed only when a decision needs it (a printed statistic that matches a
+ * form is judged by its own p), and recorded in `recomputed` when computed.
+ */
+function formPValues(forms: ScaledForm[], testDf: number, report: Report): Interval[] {
+  const out: Interval[] = [];
+  for (const form of forms) {
+    const p = upperTailInterval(form.statistic, testDf);
+    report.set(form.name === "chi-square form" ? SB_KEYS.p : SB_LOGLIK_KEYS.p, p);
+    out.push(p);
+  }
+  return out;
 }
 
 /** reasons holds (name, reason) pairs, joined only when a check is actually skipped. */
