@@ -40,7 +40,8 @@ function FacetGroup<V extends string | number>({
           const checked = selected.includes(facet.value);
           return (
             <li key={String(facet.value)} className="flex items-start gap-1.5">
-              <input id={id} type="checkbox" className="mt-0.5 accent-ledger" checked={checked} onChange={() => onToggle(facet.value)} disabled={!checked && facet.count === 0} />
+              {/* uncontrolled, re-mounted when the address changes: the box flips at once while the new address loads */}
+              <input key={String(checked)} id={id} type="checkbox" className="mt-0.5 accent-ledger" defaultChecked={checked} onChange={() => onToggle(facet.value)} disabled={!checked && facet.count === 0} />
               <label htmlFor={id} className="flex flex-1 justify-between gap-2 text-xs">
                 <span className={facet.count === 0 && !checked ? "text-ink-faint" : "text-ink"}>{label(facet.value)}</span>
                 <span className="figures text-ink-faint" aria-label={`${facet.count} comparisons`}>
