@@ -1,4 +1,5 @@
 import type { Metadata } from "next";
+import Link from "next/link";
 import { Pager } from "@/components/ui/pager";
 import { getCurrentUser } from "@/lib/auth/current-user";
 import { listPapersCodedBy } from "@/lib/db/queries/users";
@@ -24,9 +25,14 @@ export default async function WorkbenchPage({ searchParams }: { searchParams: Pr
   const papers = await listPapersCodedBy({ userId: user.id, page, pageSize: PAGE_SIZE });
   return (
     <div className="space-y-4">
-      <header>
-        <h1 className="text-xl font-semibold tracking-tight">Your workbench</h1>
-        <p className="text-ink-soft">Signed in as {user.name}. The papers you code, and where each entry stands.</p>
+      <header className="flex flex-wrap items-end justify-between gap-3">
+        <div>
+          <h1 className="text-xl font-semibold tracking-tight">Your workbench</h1>
+          <p className="text-ink-soft">Signed in as {user.name}. The papers you code, and where each entry stands.</p>
+        </div>
+        <Link href="/workbench/new" className="inline-flex items-center rounded border border-ledger bg-ledger px-3 py-1.5 text-sm font-medium text-paper-raised hover:bg-ledger-deep hover:no-underline">
+          New paper
+        </Link>
       </header>
       {papers.total === 0 ? (
         <div className="rounded border border-dashed border-rule-strong bg-paper-raised px-4 py-6">
@@ -52,7 +58,9 @@ export default async function WorkbenchPage({ searchParams }: { searchParams: Pr
               return (
                 <tr key={paper.id} className="border-b border-rule align-top">
                   <td className="py-2 pr-3">
-                    <span className="block font-medium">{paper.title}</span>
+                    <Link href={`/workbench/papers/${paper.id}`} className="block font-medium">
+                      {paper.title}
+                    </Link>
                     <span className="block text-xs text-ink-soft">
                       {[paper.journal, paper.year, paper.doi ? `doi:${paper.doi}` : paper.ref].filter(Boolean).join(" · ")}
                     </span>

@@ -1,0 +1,150 @@
+import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
+import type { Browser, Page } from "playwright-core";
+import { CAUTION_TEXT } from "@/components/caution-notice";
+import { DEMO_PASSWORD, demoCorpus } from "@/seeders/demo/corpus";
+import { launchBrowser, openPage } from "./support/browser";
+import { waitForMessage } from "./support/mail";
+import "./support/context";
+
+// Issue 5 end to end, in chromium against the built app: a contributor adds a paper by DOI (one the fake
+// registry knows and the seeded database does not), codes two models and a comparison with a wrong Δdf,
+// sees the finding appear live, submits; a curator returns it; the contributor fixes and resubmits; a
+// second curator verifies; the public page shows it with the caution notice and no error finding.
+//
+// The figures: Metric χ² = 61.30, df = 24; Configural χ² = 48.20, df = 20; so Δdf = 24 − 20 = 4, and the
+// slip typed first is Δdf = 3 (DESIGN §4.3 df-difference-mismatch).
+
+const e2e = inject("e2e");
+const CONTRIBUTOR = "contributor@fitledger.test";
+const CURATOR = "curator@fitledger.test";
+const SECOND_CURATOR = "curator2@fitledger.test";
+
+async function signIn(page: Page, email: string, next: string) {
+  await page.goto(`/signin?next=${encodeURIComponent(next)}`);
+  await page.getByLabel("E-mail address").fill(email);
+  await page.getByLabel("Password", { exact: true }).fill(DEMO_PASSWORD);
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await page.waitForURL((url) => url.pathname === next);
+}
+
+/** A paste of tab-separated text into an input, as a copy from a PDF table or a spreadsheet arrives. */
+async function pasteInto(page: Page, selector: string, text: string) {
+  await page.locator(selector).focus();
+  await page.locator(selector).evaluate((element, pasted) => {
+    const data = new DataTransfer();
+    data.setData("text/plain", pasted);
+    element.dispatchEvent(new ClipboardEvent("paste", { clipboardData: data, bubbles: true, cancelable: true }));
+  }, text);
+}
+
+describe.skipIf(!e2e.enabled)("curation in the browser", () => {
+  let browser: Browser;
+  const registryPaper = demoCorpus().registryOnly[demoCorpus().registryOnly.length - 1];
+  let paperId = 0;
+
+  beforeAll(async () => {
+    browser = await launchBrowser();
+  });
+  afterAll(async () => {
+    await browser?.close();
+  });
+
+  it("a contributor adds a paper by DOI, codes it, sees the Δdf slip live and submits", async () => {
+    const { page, problems } = await openPage(browser, e2e.baseUrl);
+    await signIn(page, CONTRIBUTOR, "/workbench/new");
+    await page.locator("#doi-query").fill(`https://doi.org/${registryPaper.doi}`);
+    await page.getByRole("button", { name: "Look up" }).click();
+    await page.getByText("Found. Check the metadata below").waitFor();
+    expect(await page.locator("#paper-title").inputValue()).toBe(registryPaper.title);
+    expect(await page.locator("#paper-doi").inputValue()).toBe(registryPaper.doi.toLowerCase());
+    await page.getByRole("button", { name: "Create the paper and start coding" }).click();
+    await page.waitForURL(/\/workbench\/papers\/\d+$/);
+    paperId = Number(new URL(page.url()).pathname.split("/").pop());
+
+    await page.locator('[name="samples.0.n"]').fill("412");
+    await page.getByRole("button", { name: "Add a model" }).click();
+    await page.locator('[name="models.0.label"]').fill("Metric");
+    await page.locator('[name="models.0.chisq"]').fill("61.30");
+    await page.locator('[name="models.0.chisq"]').press("Tab"); // tab order runs along the row
+    await page.keyboard.type("24");
+    expect(await page.locator('[name="models.0.df"]').inputValue()).toBe("24");
+    await page.getByRole("button", { name: "Add a model" }).click();
+    await pasteInto(page, '[name="models.1.label"]', "Configural\t48.20\t20");
+    expect(await page.locator('[name="models.1.chisq"]').inputValue()).toBe("48.20");
+    expect(await page.locator('[name="models.1.df"]').inputValue()).toBe("20");
+
+    await page.getByRole("button", { name: "Add a comparison" }).click();
+    await page.locator('[name="comparisons.0.label"]').fill("Metric vs configural");
+    await page.locator('[name="comparisons.0.restrictedKey"]').selectOption({ label: "Metric" });
+    await page.locator('[name="comparisons.0.freeKey"]').selectOption({ label: "Configural" });
+    await page.locator('[name="comparisons.0.dChisq"]').fill("13.10");
+    await page.locator('[name="comparisons.0.dDf"]').fill("3");
+
+    const live = page.getByTestId("live-recheck");
+    await live.locator('[data-code="df-difference-mismatch"]').waitFor();
+    expect(await live.locator('[data-code="df-difference-mismatch"]').textContent()).toContain("24 − 20 = 4");
+
+    // text where a figure belongs: a message next to the field before anything is saved
+    await page.locator('[name="models.0.cfi"]').fill("high");
+    await page.locator("#models-0-cfi-error").waitFor();
+    await page.locator('[name="models.0.cfi"]').fill("");
+
+    await page.getByRole("button", { name: "Save coding" }).click();
+    await page.getByText(/Saved \(version 2\)/).waitFor();
+    await page.getByRole("button", { name: "Submit for verification" }).click();
+    await page.getByTestId("entry-state").getByText("Submitted").waitFor();
+    expect(problems).toEqual([]);
+  });
+
+  it("a curator returns it with a comment, and the contributor is e-mailed", async () => {
+    const { page } = await openPage(browser, e2e.baseUrl);
+    await signIn(page, CURATOR, "/review");
+    await page.getByRole("link", { name: registryPaper.title }).click();
+    await page.waitForURL(`**/review/${paperId}`);
+    await page.locator('[data-code="df-difference-mismatch"]').waitFor();
+    await page.getByLabel("Comment for the contributor").fill("Table 2: the Δdf of metric vs configural is 4 (24 − 20), not 3.");
+    await page.getByRole("button", { name: "Return with this comment" }).click();
+    await page.getByTestId("review-outcome").getByText("The contributor has the comment").waitFor();
+    const mail = await waitForMessage(e2e.mailUrl, { to: CONTRIBUTOR, subject: "Your entry was returned" });
+    expect(mail.text).toContain("not 3");
+  });
+
+  it("the contributor fixes the Δdf and submits again", async () => {
+    const { page } = await openPage(browser, e2e.baseUrl);
+    await signIn(page, CONTRIBUTOR, `/workbench/papers/${paperId}`);
+    expect(await page.getByTestId("curator-comment").textContent()).toContain("not 3");
+    await page.locator('[name="comparisons.0.dDf"]').fill("4");
+    const live = page.getByTestId("live-recheck");
+    await live.getByText("No findings.").first().waitFor();
+    expect(await live.locator('[data-code="df-difference-mismatch"]').count()).toBe(0);
+    await page.getByRole("button", { name: "Save coding" }).click();
+    await page.getByText(/Saved \(version 3\)/).waitFor();
+    await page.getByRole("button", { name: "Submit again for verification" }).click();
+    await page.getByTestId("entry-state").getByText("Submitted").waitFor();
+  });
+
+  it("a second curator verifies it, and the public page shows it with the caution notice and no error finding", async () => {
+    const { page } = await openPage(browser, e2e.baseUrl);
+    await signIn(page, SECOND_CURATOR, `/review/${paperId}`);
+    await page.getByRole("button", { name: "Verify this entry" }).click();
+    await page.getByTestId("review-outcome").getByText("Verified by Chidi Okonjo").waitFor();
+
+    const { page: reader, problems } = await openPage(browser, e2e.baseUrl);
+    await reader.goto(`/papers/${paperId}`);
+    expect(await reader.getByRole("heading", { level: 1 }).textContent()).toBe(registryPaper.title);
+    expect(await reader.getByRole("complementary", { name: "How to read findings" }).textContent()).toContain(CAUTION_TEXT);
+    expect(await reader.getByTestId("citation").textContent()).toContain(`https://doi.org/${registryPaper.doi.toLowerCase()}`);
+    expect(await reader.locator('[id^="comparison-"]').count()).toBe(1);
+    expect(await reader.locator("header dl").textContent()).toContain("Verified by Chidi Okonjo");
+    expect(await reader.locator("header dl").textContent()).toContain("Coded by Bram Lindqvist");
+
+    const api = await fetch(`${e2e.baseUrl}/api/papers/${paperId}`);
+    expect(api.status).toBe(200);
+    const body = (await api.json()) as { paper: { state: string; findings: { severity: string }[]; comparisons: { id: number; figures: Record<string, string> }[] } };
+    expect(body.paper.state).toBe("verified");
+    expect(body.paper.findings.filter((finding) => finding.severity === "error")).toEqual([]);
+    expect(body.paper.comparisons[0].figures).toMatchObject({ dChisq: "13.10", dDf: "4" });
+    expect(await reader.locator(`#comparison-${body.paper.comparisons[0].id}`).count()).toBe(1);
+    expect(problems).toEqual([]);
+  });
+});
