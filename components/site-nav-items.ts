@@ -17,6 +17,7 @@ export const NAV_ITEMS: NavItem[] = [
 /** Entries of the signed-in person's menu, by the role they need. */
 export const ACCOUNT_NAV_ITEMS: NavItem[] = [
   { href: "/workbench", label: "Workbench", minRole: "contributor" },
+  { href: "/workbench/import", label: "Import a sheet", minRole: "contributor" },
   { href: "/review", label: "Review", minRole: "curator" },
   { href: "/admin/people", label: "People", minRole: "admin" },
   { href: "/admin/outbox", label: "Outbox", minRole: "admin" },

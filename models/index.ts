@@ -1,11 +1,14 @@
 import type { Sequelize } from "sequelize";
 import { AuditEvent } from "./audit-event";
 import { Comparison } from "./comparison";
+import { DoiLookup } from "./doi-lookup";
 import { Correction } from "./correction";
 import { FitModel } from "./fit-model";
 import { Flag } from "./flag";
 import { FlagDisposition } from "./flag-disposition";
 import { ImportBatch } from "./import-batch";
+import { ImportChunk } from "./import-chunk";
+import { ImportRow } from "./import-row";
 import { OutboxMessage } from "./outbox-message";
 import { Paper } from "./paper";
 import { PasswordResetToken } from "./password-reset-token";
@@ -14,9 +17,9 @@ import { SavedSearch } from "./saved-search";
 import { Setting } from "./setting";
 import { User } from "./user";
 
-export { AuditEvent, Comparison, Correction, FitModel, Flag, FlagDisposition, ImportBatch, OutboxMessage, Paper, PasswordResetToken, Sample, SavedSearch, Setting, User };
+export { AuditEvent, Comparison, Correction, DoiLookup, FitModel, Flag, FlagDisposition, ImportBatch, ImportChunk, ImportRow, OutboxMessage, Paper, PasswordResetToken, Sample, SavedSearch, Setting, User };
 
-export const models = { AuditEvent, Comparison, Correction, FitModel, Flag, FlagDisposition, ImportBatch, OutboxMessage, Paper, PasswordResetToken, Sample, SavedSearch, Setting, User };
+export const models = { AuditEvent, Comparison, Correction, DoiLookup, FitModel, Flag, FlagDisposition, ImportBatch, ImportChunk, ImportRow, OutboxMessage, Paper, PasswordResetToken, Sample, SavedSearch, Setting, User };
 export type Models = typeof models;
 
 /** Initialises every model on one Sequelize instance and wires the associations (DESIGN §3). */
@@ -57,6 +60,9 @@ export function initModels(sequelize: Sequelize): Models {
   Paper.hasMany(Correction, { foreignKey: "paperId", as: "corrections" });
   Correction.belongsTo(Paper, { foreignKey: "paperId", as: "paper" });
   ImportBatch.belongsTo(User, { foreignKey: "uploaderId", as: "uploader" });
+  ImportBatch.hasMany(ImportChunk, { foreignKey: "batchId", as: "chunks", onDelete: "CASCADE" });
+  ImportBatch.hasMany(ImportRow, { foreignKey: "batchId", as: "rows", onDelete: "CASCADE" });
+  DoiLookup.belongsTo(Paper, { foreignKey: "paperId", as: "paper" });
   User.hasMany(SavedSearch, { foreignKey: "userId", as: "savedSearches" });
   SavedSearch.belongsTo(User, { foreignKey: "userId", as: "user" });
   PasswordResetToken.belongsTo(User, { foreignKey: "userId", as: "user", onDelete: "CASCADE" });

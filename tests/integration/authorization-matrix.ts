@@ -74,6 +74,21 @@ export const ROUTE_MATRIX: RouteRow[] = [
   { file: "comparisons/route.ts", method: "GET", access: "public", path: "/api/comparisons", unguarded: "read-only search of verified entries; mine=1 and other entry states go through the guard (lib/search/scope.ts)" },
   { file: "stats/route.ts", method: "GET", access: "public", path: "/api/stats", unguarded: "read-only statistics of verified entries; wider scopes go through the guard (lib/search/scope.ts)" },
   { file: "openapi.json/route.ts", method: "GET", access: "public", path: "/api/openapi.json", unguarded: "a static description of the API; reads no data" },
+  // sheet import (issue 6): an allowed caller without a file name or with an unknown import id is refused after the guard
+  { file: "imports/route.ts", method: "POST", access: "contributor", path: "/api/imports" },
+  { file: "imports/[id]/route.ts", method: "GET", access: "contributor", path: "/api/imports/999999", params: { id: "999999" } },
+  { file: "imports/[id]/commit/route.ts", method: "POST", access: "contributor", path: "/api/imports/999999/commit", params: { id: "999999" } },
+  { file: "imports/[id]/rejected/route.ts", method: "GET", access: "contributor", path: "/api/imports/999999/rejected", params: { id: "999999" } },
+  { file: "imports/[id]/doi-retry/route.ts", method: "POST", access: "contributor", path: "/api/imports/999999/doi-retry", params: { id: "999999" } },
+  { file: "imports/own-entries/route.ts", method: "GET", access: "contributor", path: "/api/imports/own-entries?format=csv" },
+  {
+    file: "imports/files/[name]/route.ts",
+    method: "GET",
+    access: "public",
+    path: "/api/imports/files/CODEBOOK.md",
+    params: { name: "CODEBOOK.md" },
+    unguarded: "the sheet template, codebook and invented example sheets of imports/; a fixed list of files, read-only",
+  },
 ];
 
 export const ACTION_MATRIX: ActionRow[] = [
