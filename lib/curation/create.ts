@@ -1,5 +1,5 @@
 import "server-only";
-import { db, createAudited, recordEvent } from "@/lib/db";
+import { db, createAudited } from "@/lib/db";
 import { AppError } from "@/lib/errors";
 import type { z } from "zod";
 import type { newPaperSchema } from "@/lib/validation/curation";
@@ -32,7 +32,6 @@ export async function createPaper(input: NewPaperInput, actor: Actor): Promise<C
         { ...columns, ref: columns.doi ? columns.ref : (columns.ref ?? makeRef(columns)), csl, state: "draft", curatorComment: null, createdBy: actor.id, submittedAt: null, verifiedBy: null, verifiedAt: null },
         { actorId: actor.id, transaction },
       );
-      await recordEvent({ entity: "Paper", entityId: paper.id, action: "coding-saved", after: { changes: [{ entity: "Paper", label: paper.title, action: "create" }] } }, { actorId: actor.id, transaction });
       return { created: true as const, paperId: paper.id };
     });
   } catch (error) {
