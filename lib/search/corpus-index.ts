@@ -216,9 +216,14 @@ export function buildCorpusIndex(source: SearchSource, signature: string): Corpu
 
 function buildWordIndex(index: CorpusIndex, fullNames: string[]): void {
   const paperWords: string[][] = index.papers.map((paper, p) => [...new Set(tokenize([paper.title, fullNames[p], paper.journal ?? "", paper.doi ?? ""].join(" ")))]);
+  // labels repeat across thousands of rows ("Model 1", "Configural"): tokenise each distinct text once
+  const known = new Map<string, string[]>();
   const rowWords: string[][] = [];
   for (let row = 0; row < index.size; row += 1) {
-    rowWords.push([...new Set(tokenize(`${index.comparisonLabel[row]} ${index.sampleLabel[row]} ${index.restrictedLabel[row]} ${index.freeLabel[row]}`))]);
+    const text = `${index.comparisonLabel[row]} ${index.sampleLabel[row]} ${index.restrictedLabel[row]} ${index.freeLabel[row]}`;
+    let words = known.get(text);
+    if (!words) known.set(text, (words = [...new Set(tokenize(text))]));
+    rowWords.push(words);
   }
   const vocabulary = new Vocabulary([...paperWords.flat(), ...rowWords.flat()]);
   const paperLists: number[][] = Array.from({ length: vocabulary.size }, () => []);

@@ -1,6 +1,6 @@
 import "server-only";
 import { ENGINE_VERSION } from "@/lib/recheck/settings";
-import { getCorpusIndex, evaluate, type SearchScope } from "@/lib/search";
+import { indexFor, evaluate, type SearchScope } from "@/lib/search";
 import { NONE, type CorpusIndex } from "@/lib/search/corpus-index";
 import { computePrevalence, type Prevalence } from "@/lib/stats/prevalence";
 import { SEARCH_STATES, type SearchFilters } from "@/lib/validation/search";
@@ -48,7 +48,7 @@ export function snapshotOf(index: CorpusIndex): CorpusSnapshot {
 }
 
 export async function readCorpusStats({ filters, scope }: { filters: SearchFilters; scope: SearchScope }): Promise<CorpusStats> {
-  const index = await getCorpusIndex();
+  const index = await indexFor(scope);
   const { matched } = evaluate(index, { filters, scope });
   return { snapshot: snapshotOf(index), prevalence: computePrevalence(index, matched) };
 }
