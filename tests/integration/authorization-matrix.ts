@@ -73,6 +73,7 @@ export const ROUTE_MATRIX: RouteRow[] = [
   { file: "admin/recheck/route.ts", method: "POST", access: "admin", path: "/api/admin/recheck", body: {} },
   { file: "comparisons/route.ts", method: "GET", access: "public", path: "/api/comparisons", unguarded: "read-only search of verified entries; mine=1 and other entry states go through the guard (lib/search/scope.ts)" },
   { file: "stats/route.ts", method: "GET", access: "public", path: "/api/stats", unguarded: "read-only statistics of verified entries; wider scopes go through the guard (lib/search/scope.ts)" },
+  { file: "export/route.ts", method: "GET", access: "public", path: "/api/export?format=json", unguarded: "read-only download of verified entries; mine=1 goes through the guard (lib/search/scope.ts)" },
   { file: "openapi.json/route.ts", method: "GET", access: "public", path: "/api/openapi.json", unguarded: "a static description of the API; reads no data" },
   // sheet import (issue 6): an allowed caller without a file name or with an unknown import id is refused after the guard
   { file: "imports/route.ts", method: "POST", access: "contributor", path: "/api/imports" },
