@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
 import { CAUTION_TEXT } from "@/components/caution-notice";
+import { createDatabase } from "@/lib/db/connection";
 import { DEMO_PASSWORD, demoCorpus } from "@/seeders/demo/corpus";
 import { launchBrowser, openPage } from "./support/browser";
 import { waitForMessage } from "./support/mail";
@@ -145,6 +146,42 @@ describe.skipIf(!e2e.enabled)("curation in the browser", () => {
     expect(body.paper.findings.filter((finding) => finding.severity === "error")).toEqual([]);
     expect(body.paper.comparisons[0].figures).toMatchObject({ dChisq: "13.10", dDf: "4" });
     expect(await reader.locator(`#comparison-${body.paper.comparisons[0].id}`).count()).toBe(1);
+    expect(problems).toEqual([]);
+  });
+
+  it("a link from search with ?finding=<code> highlights that finding, and the tables sort", async () => {
+    // a seeded verified paper with at least two comparisons and a finding on one of them, read from the database
+    const database = createDatabase(e2e.databaseUrl);
+    await database.ready;
+    const { Flag, Paper, Comparison } = database.models;
+    const papers = await Paper.findAll({ where: { state: "verified" }, attributes: ["id"], order: [["id", "ASC"]] });
+    let target: { paperId: number; flagId: number; code: string; labels: string[] } | null = null;
+    for (const paper of papers) {
+      const comparisons = await Comparison.findAll({ where: { paperId: paper.id }, attributes: ["label"] });
+      const flag = await Flag.findOne({ where: { paperId: paper.id }, attributes: ["id", "code"], order: [["id", "ASC"]] });
+      if (flag && comparisons.length >= 2) {
+        target = { paperId: paper.id, flagId: flag.id, code: flag.code, labels: comparisons.map((row) => row.label) };
+        break;
+      }
+    }
+    await database.sequelize.close();
+    expect(target).not.toBeNull();
+
+    const { page, problems } = await openPage(browser, e2e.baseUrl);
+    await page.goto(`/papers/${target!.paperId}?finding=${target!.code}`);
+    const finding = page.locator(`#finding-${target!.flagId}`);
+    expect(await finding.getAttribute("data-highlighted")).toBe("true");
+    expect(await page.locator("[data-highlighted]").evaluateAll((items) => items.map((item) => item.getAttribute("data-code")))).toEqual(
+      expect.arrayContaining([target!.code]),
+    );
+    expect(new Set(await page.locator("[data-highlighted]").evaluateAll((items) => items.map((item) => item.getAttribute("data-code"))))).toEqual(new Set([target!.code]));
+
+    const table = page.locator("table", { has: page.locator("caption", { hasText: "Reported comparisons" }) });
+    await table.getByRole("button", { name: "Comparison", exact: true }).click();
+    const ascending = await table.locator("tbody tr td:first-child").allTextContents();
+    expect(ascending).toEqual([...target!.labels].sort((a, b) => a.localeCompare(b)));
+    await table.getByRole("button", { name: "Comparison", exact: true }).click();
+    expect(await table.locator("tbody tr td:first-child").allTextContents()).toEqual([...ascending].reverse());
     expect(problems).toEqual([]);
   });
 });
