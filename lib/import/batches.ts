@@ -167,7 +167,9 @@ export async function runCommit(batchId: number, uploaderId: number): Promise<Co
   }
   if (batch.acceptedRows === 0) throw new AppError("conflict", "No row of this sheet was accepted: there is nothing to commit.");
   const dryRun = batch.progress;
-  await batch.update({ status: "committing" });
+  // claim the batch atomically: a second press of the button finds it committing and stops here
+  const [claimed] = await ImportBatch.update({ status: "committing" }, { where: { id: batchId, status: batch.status } });
+  if (claimed === 0) throw new AppError("conflict", "This import is already being committed.");
   const progress = startProgress(batchId);
   try {
     const settings = await readRecheckSettings();

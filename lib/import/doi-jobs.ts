@@ -4,6 +4,7 @@
 // and can be retried; it never blocks or undoes the import. Metadata fills only what the sheet left
 // empty (and the DOI standing in for a missing title); the CSL record is kept whole.
 
+import { Transaction } from "sequelize";
 import { updateAudited } from "@/lib/db/audit";
 import { db } from "@/lib/db";
 import { resolveDoi, type DoiResolution } from "@/lib/doi";
@@ -56,7 +57,8 @@ async function runLookup(job: DoiLookup, resolve: DoiResolver): Promise<void> {
     outcome = { ok: false, reason: "unreachable", message: "The lookup failed unexpectedly." };
   }
   const { sequelize } = await db();
-  await sequelize.transaction(async (transaction) => {
+  // IMMEDIATE: several lookups finish at once; a deferred transaction upgrading to a write would get SQLITE_BUSY
+  await sequelize.transaction({ type: Transaction.TYPES.IMMEDIATE }, async (transaction) => {
     if (!outcome.ok) {
       await job.update({ status: "failed", reason: outcome.reason, message: outcome.message, attempts: job.attempts + 1 }, { transaction });
       return;

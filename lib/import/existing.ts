@@ -5,7 +5,7 @@ import { Op, type Transaction } from "sequelize";
 import { Comparison, FitModel, Paper, Sample } from "@/models";
 import type { EntryState } from "@/models/paper";
 import { COMPARISON_FIGURES, MODEL_FIGURES, textAttribute } from "@/models/figures";
-import { comparisonSignature, modelSignature } from "./entry";
+import { comparisonSignature, encodeSignature, modelSignature } from "./entry";
 
 export interface ExistingPaper {
   id: number;
@@ -25,12 +25,14 @@ export interface ExistingSample {
 
 export interface ExistingModel {
   id: number;
-  signature: (string | null)[];
+  /** encodeSignature(modelSignature(row)) */
+  signature: string;
 }
 
 export interface ExistingComparison {
   id: number;
-  signature: (string | null)[];
+  /** encodeSignature(comparisonSignature(row, …)) */
+  signature: string;
 }
 
 export interface ExistingState {
@@ -103,7 +105,7 @@ export async function loadExisting(keys: { dois: Iterable<string>; refs: Iterabl
     const models = await FitModel.findAll({ where, attributes: MODEL_ATTRIBUTES, raw: true, transaction });
     for (const model of models) {
       modelLabel.set(model.id, model.label);
-      state.models.set(childKey(model.sampleId as number, model.label), { id: model.id, signature: modelSignature(model as unknown as Parameters<typeof modelSignature>[0]) });
+      state.models.set(childKey(model.sampleId as number, model.label), { id: model.id, signature: encodeSignature(modelSignature(model as unknown as Parameters<typeof modelSignature>[0])) });
     }
     const comparisons = await Comparison.findAll({ where, attributes: COMPARISON_ATTRIBUTES, raw: true, transaction });
     for (const comparison of comparisons) {
@@ -112,7 +114,7 @@ export async function loadExisting(keys: { dois: Iterable<string>; refs: Iterabl
         modelLabel.get(comparison.restrictedModelId as number) ?? "",
         modelLabel.get(comparison.freeModelId as number) ?? "",
       );
-      state.comparisons.set(childKey(comparison.sampleId as number, comparison.label), { id: comparison.id, signature });
+      state.comparisons.set(childKey(comparison.sampleId as number, comparison.label), { id: comparison.id, signature: encodeSignature(signature) });
     }
   }
   return state;

@@ -5,7 +5,7 @@
 import type { FieldError } from "@/lib/recheck/types";
 import type { CslName } from "@/models/paper";
 import { MODEL_FIGURES, COMPARISON_FIGURES, textAttribute } from "@/models/figures";
-import { MODEL_SIGNATURE_COLUMNS, valuesComparisonSignature, valuesModelSignature, type ModelValues, type RowEntry } from "./entry";
+import { MODEL_SIGNATURE_COLUMNS, decodeSignature, encodeSignature, valuesComparisonSignature, valuesModelSignature, type ModelValues, type RowEntry } from "./entry";
 import { childKey, type ExistingPaper, type ExistingState } from "./existing";
 
 export type Change = "new" | "changed" | "same";
@@ -44,7 +44,7 @@ interface PlannedSample {
 interface PlannedModel {
   id: number;
   row: number;
-  signature: (string | null)[];
+  signature: string;
 }
 
 export interface PlannedWrite<V> {
@@ -126,7 +126,7 @@ export class ImportPlanner {
   private readonly refOwner = new Map<string, { key: string; row: number }>();
   private readonly samples = new Map<string, PlannedSample>();
   private readonly models = new Map<string, PlannedModel>();
-  private readonly comparisons = new Map<string, { row: number; signature: (string | null)[] }>();
+  private readonly comparisons = new Map<string, { row: number; signature: string }>();
 
   constructor(
     private readonly existing: ExistingState,
@@ -181,24 +181,27 @@ export class ImportPlanner {
       else if (fileSample.groups !== entry.sample.groups) errors.push({ column: "n_groups", message: `sample "${entry.sample.label}" has ${entry.sample.groups} groups here but ${fileSample.groups} in row ${fileSample.row}` });
     }
     const modelSignatures = [valuesModelSignature(entry.restricted), valuesModelSignature(entry.free)];
+    const modelCodes = modelSignatures.map(encodeSignature);
     [entry.restricted, entry.free].forEach((model, index) => {
       const prefix = index === 0 ? "a_" : "b_";
       const earlier = this.models.get(`${sampleKey}\u0000${model.label}`);
-      if (!earlier) return;
-      const at = firstDifference(modelSignatures[index], earlier.signature);
+      if (!earlier || earlier.signature === modelCodes[index]) return;
+      const earlierParts = decodeSignature(earlier.signature);
+      const at = firstDifference(modelSignatures[index], earlierParts);
       if (at >= 0) {
         const column = prefix + MODEL_SIGNATURE_COLUMNS[at];
         errors.push({
           column,
-          message: `model "${model.label}" has ${MODEL_SIGNATURE_COLUMNS[at]} ${quoted(modelSignatures[index][at])} here but ${quoted(earlier.signature[at])} in row ${earlier.row}; a model's figures must agree in every row that names it`,
+          message: `model "${model.label}" has ${MODEL_SIGNATURE_COLUMNS[at]} ${quoted(modelSignatures[index][at])} here but ${quoted(earlierParts[at])} in row ${earlier.row}; a model's figures must agree in every row that names it`,
         });
       }
     });
     const comparisonKey = `${sampleKey}\u0000${entry.comparison.label}`;
-    const comparisonSig = valuesComparisonSignature(entry.comparison, entry.restricted.label, entry.free.label);
+    const comparisonParts = valuesComparisonSignature(entry.comparison, entry.restricted.label, entry.free.label);
+    const comparisonSig = encodeSignature(comparisonParts);
     const earlierComparison = this.comparisons.get(comparisonKey);
     if (earlierComparison) {
-      const identical = firstDifference(comparisonSig, earlierComparison.signature) < 0;
+      const identical = comparisonSig === earlierComparison.signature;
       errors.push({
         column: "comparison",
         message: `comparison "${entry.comparison.label}" of sample "${entry.sample.label}" is already in row ${earlierComparison.row}${identical ? "" : " with other figures"}; each comparison belongs in one row per sheet`,
@@ -214,10 +217,10 @@ export class ImportPlanner {
       if (this.models.has(`${sampleKey}\u0000${model.label}`)) return { change: "same" };
       const stored = storedSample ? this.existing.models.get(childKey(storedSample.id, model.label)) : undefined;
       if (!stored) return { change: "new" };
-      return { change: firstDifference(modelSignatures[index], stored.signature) < 0 ? "same" : "changed", storedId: stored.id, before: stored.signature };
+      return { change: stored.signature === modelCodes[index] ? "same" : "changed", storedId: stored.id, before: decodeSignature(stored.signature) };
     });
     const storedComparison = storedSample ? this.existing.comparisons.get(childKey(storedSample.id, entry.comparison.label)) : undefined;
-    const comparisonChange: Change = !storedComparison ? "new" : firstDifference(comparisonSig, storedComparison.signature) < 0 ? "same" : "changed";
+    const comparisonChange: Change = !storedComparison ? "new" : comparisonSig === storedComparison.signature ? "same" : "changed";
     const anyChange = metadataChanged || sampleChange !== "same" || modelChanges.some((m) => m.change !== "same") || comparisonChange !== "same";
     const outcome: RowOutcome = comparisonChange === "new" ? "new" : anyChange ? "updated" : "unchanged";
 
@@ -275,7 +278,7 @@ export class ImportPlanner {
       } else {
         const change = modelChanges[index];
         id = change.storedId ?? this.next.model++;
-        this.models.set(modelKey, { id, row: entry.row, signature: modelSignatures[index] });
+        this.models.set(modelKey, { id, row: entry.row, signature: modelCodes[index] });
         if (change.change !== "same") {
           const write: PlannedWrite<ModelValues> = { id, change: change.change, values: model };
           if (change.change === "changed") Object.assign(write, changes(MODEL_SIGNATURE_ATTRIBUTES, change.before!, modelSignatures[index]));
@@ -290,7 +293,7 @@ export class ImportPlanner {
     plan.comparisonId = comparisonId;
     if (comparisonChange !== "same") {
       plan.comparison = { id: comparisonId, change: comparisonChange, values: entry.comparison };
-      if (comparisonChange === "changed") Object.assign(plan.comparison, changes(COMPARISON_SIGNATURE_ATTRIBUTES, storedComparison!.signature, comparisonSig));
+      if (comparisonChange === "changed") Object.assign(plan.comparison, changes(COMPARISON_SIGNATURE_ATTRIBUTES, decodeSignature(storedComparison!.signature), comparisonParts));
     }
     return { ok: true, plan };
   }

@@ -41,7 +41,8 @@ async function upload(request: Request): Promise<Response> {
     if (bytes === 0) {
       await runDryRun(batchId); // records the "empty file" refusal on the batch
     } else {
-      void runDryRun(batchId); // in the background; the page polls its progress
+      // in the background; the page polls its progress (runDryRun records its own failures on the batch)
+      void runDryRun(batchId).catch((error: unknown) => console.error("[import] dry run not started:", error));
     }
     return Response.json({ id: batchId, bytes }, { status: 202 });
   });

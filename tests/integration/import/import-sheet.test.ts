@@ -2,6 +2,7 @@ import fs from "node:fs";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createTestDatabase, type TestDatabase } from "../../support/test-db";
 import { AuditEvent, Comparison, FitModel, Flag, Paper, Sample } from "@/models";
+import { runCommit } from "@/lib/import/batches";
 import { createAccount, dryRun, importSheet } from "./support";
 
 // A realistic sheet (imports/: several invented papers, LRT and information criteria, WLSMV, a paper
@@ -110,5 +111,19 @@ describe("entries the uploader may not change", () => {
     const changed = await dryRun(coder, invariance.replaceAll("Table 3, p. 118", "Table 4, p. 120"));
     expect(changed.progress).toMatchObject({ unchanged: 1, rejected: 2 });
     expect(changed.rowErrors[0].message).toMatch(/is verified; a verified entry changes only through a curator/);
+  });
+});
+
+describe("committing", () => {
+  it("refuses a batch that is already committed, or one without an accepted row, and writes nothing", async () => {
+    const before = await counts();
+    const committed = await importSheet(coder, invariance); // all rows unchanged (the paper is verified by now)
+    expect(committed.status).toBe("committed");
+    await expect(runCommit(committed.id, coder)).rejects.toThrow(/already been committed/);
+    const refused = await dryRun(other, several);
+    await expect(runCommit(refused.id, other)).rejects.toThrow(/nothing to commit/);
+    // someone else's batch is not found at all
+    await expect(runCommit(committed.id, other)).rejects.toThrow(/no such import/);
+    expect({ ...(await counts()), audit: 0 }).toEqual({ ...before, audit: 0 });
   });
 });

@@ -17,8 +17,11 @@ export const POST = withRole("contributor", null, async (_input, user, _request,
   if (batch.status === "committed") throw new AppError("conflict", "This import has already been committed.");
   if (batch.status !== "previewed" && batch.status !== "failed") throw new AppError("conflict", "Wait for the dry run to finish before committing.");
   if (batch.acceptedRows === 0) throw new AppError("conflict", "No row of this sheet was accepted: there is nothing to commit.");
-  void runCommit(batch.id, user.id).then((result) => {
-    if (result && result.totals.doiLookups > 0) startDoiResolution();
-  });
+  // in the background; a refusal (a second press) or a failure is recorded on the batch, never thrown away unseen
+  void runCommit(batch.id, user.id)
+    .then((result) => {
+      if (result && result.totals.doiLookups > 0) startDoiResolution();
+    })
+    .catch((error: unknown) => console.error("[import] commit not started:", error instanceof Error ? error.message : error));
   return Response.json({ id: batch.id, status: "committing" }, { status: 202 });
 });
