@@ -91,7 +91,7 @@ const columns = helper.columns([
       row.original.findings.length === 0 ? (
         <span className="text-xs text-ink-faint">none</span>
       ) : (
-        <ul className="space-y-0.5">
+        <ul className="min-w-[13rem] space-y-0.5">
           {row.original.findings.map((finding, position) => (
             <li key={`${finding.code}-${position}`} className="flex items-center gap-1.5 text-xs">
               <SeverityBadge severity={finding.severity as Severity} />

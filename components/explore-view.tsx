@@ -46,7 +46,7 @@ function addressOf(filters: SearchFilters, paging: Partial<Paging>, columns: Opt
   return text ? `?${text}` : "";
 }
 
-export function ExploreView({ initial, initialKey, signedIn, saveForm }: { initial: ExplorePage | null; initialKey: string; signedIn: boolean; saveForm?: ReactNode }) {
+export function ExploreView({ initial, initialKey, signedIn, ownEntries = false, saveForm }: { initial: ExplorePage | null; initialKey: string; signedIn: boolean; ownEntries?: boolean; saveForm?: ReactNode }) {
   const router = useRouter();
   const pathname = usePathname();
   const searchParams = useSearchParams();
@@ -153,6 +153,12 @@ export function ExploreView({ initial, initialKey, signedIn, saveForm }: { initi
             <button type="button" className="text-xs text-ledger hover:underline" onClick={() => go(EMPTY_FILTERS, { sort: paging.sort, perPage: paging.perPage })}>
               Clear all filters
             </button>
+          ) : null}
+          {ownEntries ? (
+            <label className="flex items-center gap-1 text-xs">
+              <input key={String(filters.mine)} type="checkbox" className="accent-ledger" defaultChecked={filters.mine} onChange={() => changeFilters({ ...filters, mine: !filters.mine, state: [] })} />
+              Only my own entries (any state)
+            </label>
           ) : null}
           <div className="ml-auto flex items-center gap-3 text-xs">
             <ColumnMenu columns={columns} onChange={(next) => go(filters, paging, next)} />

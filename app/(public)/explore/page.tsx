@@ -5,6 +5,7 @@ import { ExploreSaveForm } from "@/components/explore-save-form";
 import { ExploreView, type ExplorePage } from "@/components/explore-view";
 import { Notice } from "@/components/ui/notice";
 import { getCurrentUser } from "@/lib/auth/current-user";
+import { hasRole } from "@/lib/auth/roles";
 import { isAppError } from "@/lib/errors";
 import { searchComparisons } from "@/lib/search";
 import { scopeForReader } from "@/lib/search/scope";
@@ -48,7 +49,7 @@ export default async function ExploreRoute({ searchParams }: { searchParams: Sea
       </header>
       {refusal ? <Notice tone="error">{refusal}</Notice> : null}
       <Suspense fallback={<p className="text-ink-faint">Loading the search…</p>}>
-        <ExploreView initial={initial} initialKey={initialKey} signedIn={user !== null} saveForm={user ? <ExploreSaveForm /> : undefined} />
+        <ExploreView initial={initial} initialKey={initialKey} signedIn={user !== null} ownEntries={user !== null && hasRole(user.role, "contributor")} saveForm={user ? <ExploreSaveForm /> : undefined} />
       </Suspense>
       <CautionNotice />
     </div>

@@ -138,10 +138,8 @@ export default async function InsightsPage({ searchParams }: { searchParams: Sea
       />
 
       <InsightsFigure table={tables.journal} context={context} chart={<IntervalBars tone="error" bars={groupBars(prevalence.byJournal)} />} />
-      <div className="grid gap-6 lg:grid-cols-2">
-        <InsightsFigure table={tables.estimator} context={context} chart={<IntervalBars tone="error" bars={groupBars(prevalence.byEstimator)} />} />
-        <InsightsFigure table={tables.method} context={context} chart={<IntervalBars tone="error" bars={groupBars(prevalence.byMethod, (value) => METHOD_LABELS[String(value)] ?? String(value))} />} />
-      </div>
+      <InsightsFigure table={tables.estimator} context={context} chart={<IntervalBars tone="error" bars={groupBars(prevalence.byEstimator)} />} />
+      <InsightsFigure table={tables.method} context={context} chart={<IntervalBars tone="error" bars={groupBars(prevalence.byMethod, (value) => METHOD_LABELS[String(value)] ?? String(value))} />} />
       <p className="text-xs text-ink-faint">
         The same figures as JSON for scripts: <a href={`/api/stats${query ? `?${query}` : ""}`}>/api/stats{query ? `?${query}` : ""}</a>. Intervals: Wilson, E. B. (1927), Probable inference, the law of
         succession, and statistical inference, JASA 22, 209–212.
