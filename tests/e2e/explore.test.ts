@@ -2,6 +2,7 @@ import fs from "node:fs";
 import Papa from "papaparse";
 import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
 import type { Browser } from "playwright-core";
+import { createDatabase } from "@/lib/db/connection";
 import { launchBrowser, openPage } from "./support/browser";
 import "./support/context";
 
@@ -69,6 +70,24 @@ describe.skipIf(!e2e.enabled)("Explore in the browser", () => {
 
     // the paper page belongs to another feature; a missing page's 404 is not this test's concern
     expect(problems.filter((problem) => !/404|Failed to load resource/.test(problem))).toEqual([]);
+  });
+
+  it("never shows the public a draft, submitted or returned entry, on the page or in the API", async () => {
+    const database = createDatabase(e2e.databaseUrl);
+    await database.ready;
+    const hidden = await database.models.Paper.findAll({ where: { state: ["draft", "submitted", "returned"] }, attributes: ["doi", "state"], raw: true, limit: 6 });
+    const shown = await database.models.Paper.findOne({ where: { state: "verified" }, attributes: ["doi"], raw: true });
+    await database.sequelize.close();
+    expect(hidden.filter((paper) => paper.doi).length).toBeGreaterThanOrEqual(3);
+    const { page } = await openPage(browser, e2e.baseUrl);
+    for (const paper of hidden.filter((item) => item.doi)) {
+      const api = (await (await fetch(`${e2e.baseUrl}/api/comparisons?q=${encodeURIComponent(paper.doi!)}`)).json()) as { total: number };
+      expect([paper.state, api.total]).toEqual([paper.state, 0]);
+      await page.goto(`/explore?q=${encodeURIComponent(paper.doi!)}`);
+      await expect.poll(async () => page.getByTestId("result-count").textContent()).toBe("0");
+    }
+    await page.goto(`/explore?q=${encodeURIComponent(shown!.doi!)}`);
+    await expect.poll(async () => Number(await page.getByTestId("result-count").textContent())).toBeGreaterThan(0);
   });
 
   it("shows an empty state and clears every filter with one button", async () => {
