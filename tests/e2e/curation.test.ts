@@ -53,6 +53,15 @@ describe.skipIf(!e2e.enabled)("curation in the browser", () => {
   it("a contributor adds a paper by DOI, codes it, sees the Δdf slip live and submits", async () => {
     const { page, problems } = await openPage(browser, e2e.baseUrl);
     await signIn(page, CONTRIBUTOR, "/workbench/new");
+    // a malformed DOI is refused next to the field; an unknown one says so and leaves the form to type into
+    await page.locator("#doi-query").fill("10.12/too-short");
+    await page.getByRole("button", { name: "Look up" }).click();
+    expect(await page.locator("#doi-query-error").textContent()).toMatch(/not a DOI/);
+    await page.locator("#doi-query").fill("10.5555/fitledger.nobody-registered-this");
+    await page.getByRole("button", { name: "Look up" }).click();
+    await page.getByText("The DOI registry does not know this DOI.").waitFor();
+    expect(await page.locator("#paper-doi").inputValue()).toBe("10.5555/fitledger.nobody-registered-this");
+
     await page.locator("#doi-query").fill(`https://doi.org/${registryPaper.doi}`);
     await page.getByRole("button", { name: "Look up" }).click();
     await page.getByText("Found. Check the metadata below").waitFor();

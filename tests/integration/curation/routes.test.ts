@@ -97,7 +97,10 @@ describe("PUT /api/curation/papers/[id]", () => {
     caller.userId = coder.id;
     const first = await putCoding(new Request(`http://fitledger.test/api/curation/papers/${paperId}`, json({ document: twoModelDocument(1) })), params(paperId));
     expect(first.status).toBe(200);
-    expect(await first.json()).toMatchObject({ version: 2 });
+    const saved = await first.json();
+    expect(saved).toMatchObject({ version: 2, document: { version: 2 } });
+    // the form carries on from the stored rows: new keys are replaced by the stored rows' keys
+    expect(saved.document.models.map((model: { key: string }) => model.key)).toEqual([expect.stringMatching(/^m\d+$/), expect.stringMatching(/^m\d+$/)]);
     const stale = await putCoding(new Request(`http://fitledger.test/api/curation/papers/${paperId}`, json({ document: twoModelDocument(1, { dDf: "4" }) })), params(paperId));
     expect(stale.status).toBe(409);
     expect((await stale.json()).error).toMatchObject({ code: "conflict" });

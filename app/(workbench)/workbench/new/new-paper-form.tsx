@@ -7,6 +7,7 @@ import { ActionMessage, Notice } from "@/components/ui/notice";
 import { IDLE_STATE } from "@/lib/auth/action-state";
 import type { PaperMetadata } from "@/lib/citations/csl";
 import { DOI_HINT, normaliseDoi } from "@/lib/doi/normalise";
+import { newPaperSchema, pathFieldErrors } from "@/lib/validation/curation";
 import { createPaperFromForm } from "../actions";
 
 // A new paper: look its DOI up (the registry fills the metadata), paste or upload BibTeX/RIS, or type it.
@@ -36,7 +37,9 @@ export function NewPaperForm() {
   const [citationText, setCitationText] = useState("");
   const [citationError, setCitationError] = useState<string | null>(null);
   const [records, setRecords] = useState<{ metadata: PaperMetadata; csl: Record<string, unknown> }[]>([]);
-  const errorsFor = (field: string) => state.fieldErrors[field];
+  // the server's schema, run here first so a slip is shown next to its field before the form is sent
+  const [clientErrors, setClientErrors] = useState<Record<string, string[]>>({});
+  const errorsFor = (field: string) => clientErrors[field] ?? state.fieldErrors[field];
 
   const fill = (next: PaperMetadata, record: Record<string, unknown> | null) => {
     setMetadata((current) => ({ ...current, ...next }));
@@ -184,7 +187,17 @@ export function NewPaperForm() {
         </div>
       ) : null}
 
-      <form action={action} className="space-y-3" aria-label="Paper metadata">
+      <form
+        action={action}
+        className="space-y-3"
+        aria-label="Paper metadata"
+        onSubmit={(event) => {
+          const parsed = newPaperSchema.safeParse({ ...metadata, csl });
+          const problems = parsed.success ? {} : pathFieldErrors(parsed.error);
+          setClientErrors(problems);
+          if (!parsed.success) event.preventDefault();
+        }}
+      >
         <input type="hidden" name="csl" value={csl} />
         <div className="grid grid-cols-2 gap-3">
           {(Object.keys(EMPTY) as (keyof typeof EMPTY)[]).map((field) => {
@@ -195,7 +208,10 @@ export function NewPaperForm() {
               id,
               name: field,
               value,
-              onChange: (event: ChangeEvent<HTMLInputElement | HTMLTextAreaElement>) => setMetadata((current) => ({ ...current, [field]: event.target.value })),
+              onChange: (event: ChangeEvent<HTMLInputElement | HTMLTextAreaElement>) => {
+                setMetadata((current) => ({ ...current, [field]: event.target.value }));
+                setClientErrors((current) => Object.fromEntries(Object.entries(current).filter(([name]) => name !== field)));
+              },
               "aria-invalid": problem ? true : undefined,
               "aria-describedby": problem ? `${id}-error` : undefined,
               className: `${CONTROL} ${problem ? "border-finding-error" : "border-rule-strong"}`,

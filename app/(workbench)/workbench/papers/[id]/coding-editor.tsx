@@ -140,10 +140,14 @@ export function CodingEditor({ paperId, initial, editable, submitLabel }: { pape
     }
     setSave({ kind: "saving" });
     setServerErrors({});
+    const sent = doc;
     try {
-      const response = await fetch(`/api/curation/papers/${paperId}`, { method: "PUT", headers: { "content-type": "application/json" }, body: JSON.stringify({ document: doc }) });
-      const body = (await response.json().catch(() => ({}))) as { version?: number; flags?: number; error?: { code: string; message: string; fields?: Record<string, string[]> } };
+      const response = await fetch(`/api/curation/papers/${paperId}`, { method: "PUT", headers: { "content-type": "application/json" }, body: JSON.stringify({ document: sent }) });
+      const body = (await response.json().catch(() => ({}))) as { version?: number; flags?: number; document?: Doc; error?: { code: string; message: string; fields?: Record<string, string[]> } };
       if (response.ok) {
+        // carry on from what was stored: new rows now have their keys, and the document its new version
+        // (the form is disabled while a save runs, so nothing was typed meanwhile)
+        if (body.document) setDoc(body.document);
         setDirty(false);
         if (body.version) setSavedVersion(body.version);
         setSave({ kind: "saved", message: `Saved (version ${body.version}); ${body.flags ?? 0} finding${body.flags === 1 ? "" : "s"} stored.` });

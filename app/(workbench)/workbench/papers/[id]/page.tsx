@@ -58,7 +58,7 @@ export default async function CodePaperPage({ params, searchParams }: { params: 
           {header.state === "submitted" ? "The entry is with the curators; it cannot be changed until it is verified or returned." : header.state === "verified" ? "The entry is verified; its coding is shown read-only." : "You can read this entry but not change it."}
         </Notice>
       ) : null}
-      <CodingEditor key={header.version} paperId={header.id} initial={document} editable={editable} submitLabel={maySubmit ? (header.state === "returned" ? "Submit again for verification" : "Submit for verification") : undefined} />
+      <CodingEditor paperId={header.id} initial={document} editable={editable} submitLabel={maySubmit ? (header.state === "returned" ? "Submit again for verification" : "Submit for verification") : undefined} />
     </div>
   );
 }
