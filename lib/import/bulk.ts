@@ -40,12 +40,26 @@ function value(column: Column, raw: unknown): unknown {
 }
 
 /**
+ * A SQL literal: strings quoted with '' doubled (the SQL standard; SQLite, and PostgreSQL with its default
+ * standard_conforming_strings), finite numbers as written, NULL; anything else through Sequelize's escape.
+ * The sheet reader refuses NUL bytes, so no string here holds one.
+ */
+let escapeOther: (value: unknown) => string = String;
+function literal(value: unknown): string {
+  if (value === null) return "NULL";
+  if (typeof value === "string") return "'" + (value.includes("'") ? value.replace(/'/g, "''") : value) + "'";
+  if (typeof value === "number" && Number.isFinite(value)) return String(value);
+  return escapeOther(value);
+}
+
+/**
  * Inserts `rows` (all with the same attributes) into the model's table. With `update`, a row whose id
  * exists has those attributes overwritten instead. Timestamps are filled when the model keeps them.
  */
 export async function bulkWrite(model: ModelStatic<Model>, rows: readonly Row[], options: { transaction: Transaction; now: Date; update?: readonly string[] }): Promise<void> {
   if (rows.length === 0) return;
   const sequelize = model.sequelize!;
+  escapeOther = (value) => sequelize.escape(value as string);
   const quote = (name: string) => sequelize.getQueryInterface().quoteIdentifier(name);
   const definitions = model.getAttributes();
   const stamp = sqlTimestamp(options.now);
@@ -60,7 +74,7 @@ export async function bulkWrite(model: ModelStatic<Model>, rows: readonly Row[],
   }
   const perStatement = Math.max(1, Math.floor(MAX_VALUES / columns.length));
   const stamped = columns.map((column) => timestamps.includes(column.attribute));
-  const escapedStamp = sequelize.escape(stamp);
+  const escapedStamp = literal(stamp);
   for (let at = 0; at < rows.length; at += perStatement) {
     const part = rows.slice(at, at + perStatement);
     const tuples: string[] = new Array(part.length);
@@ -69,7 +83,7 @@ export async function bulkWrite(model: ModelStatic<Model>, rows: readonly Row[],
       let tuple = "(";
       for (let c = 0; c < columns.length; c++) {
         if (c > 0) tuple += ",";
-        tuple += stamped[c] ? escapedStamp : sequelize.escape(value(columns[c], row[columns[c].attribute]) as string);
+        tuple += stamped[c] ? escapedStamp : literal(value(columns[c], row[columns[c].attribute]));
       }
       tuples[r] = tuple + ")";
     }

@@ -8,13 +8,12 @@ import type { ComparisonInput, Estimator, FieldError, InvarianceClaim, Method, M
 import { MAX_FIGURE_TEXT, TEXT_LIMITS, tooLong } from "@/lib/validation/import";
 import { COMPARISON_FIGURES, MODEL_FIGURES, textAttribute } from "@/models/figures";
 import type { CslName } from "@/models/paper";
-import { figureColumns as figureColumnsImport } from "@/seeders/demo-seed";
+import { readPrintedNumber as readPrintedNumberImport } from "@/lib/recheck/printed";
 import { formatAuthors, parseAuthors } from "./authors";
 
 // Imported functions bound once: under tsx (CommonJS) each call to an import otherwise goes through an
 // export getter, measurable at 100 000 rows (the same trick as lib/recheck/parse.ts).
 const parseComparison = parseComparisonImport;
-const figureColumns = figureColumnsImport;
 
 /** Paper metadata as the sheet gives it; an absent field leaves what is stored alone. */
 export interface PaperCells {
@@ -242,24 +241,48 @@ export const COMPARISON_SIGNATURE_COLUMNS = [
   ...COMPARISON_FIGURES.map((f) => SHEET_COLUMNS.find((c) => c.part === "comparison" && c.key === f)!.name),
 ];
 
-function textMap(texts: FigureTexts, names: readonly string[]): Partial<Record<string, string>> {
-  const map: Partial<Record<string, string>> = {};
-  for (let i = 0; i < names.length; i++) if (texts[i] !== null) map[names[i]] = texts[i]!;
-  return map;
+const MODEL_TEXT_ATTRIBUTES = MODEL_FIGURES.map(textAttribute);
+const COMPARISON_TEXT_ATTRIBUTES = COMPARISON_FIGURES.map(textAttribute);
+const readPrintedNumber = readPrintedNumberImport;
+const RELATION = /^[<>=≤≥]\s*/;
+
+/** The parsed number stored beside a printed figure: the rule of figureColumns (lib/curation), one cell at a time. */
+export function figureValue(printed: string | null): number | null {
+  if (printed === null) return null;
+  return readPrintedNumber(printed.replace(RELATION, ""))?.value ?? null;
+}
+
+/** Writes text and value of each figure into `target`; same result as figureColumns (tests/unit/import compares). */
+function putFigures(target: Record<string, unknown>, texts: FigureTexts, figures: readonly string[], textAttributes: readonly string[]): void {
+  for (let i = 0; i < figures.length; i++) {
+    const text = texts[i];
+    target[textAttributes[i]] = text;
+    target[figures[i]] = figureValue(text);
+  }
 }
 
 /** The stored attributes of a model (printed text and parsed value of each figure). */
-export const modelRecord = (values: ModelValues) => ({
-  label: values.label,
-  estimator: values.estimator,
-  meanStructure: values.meanStructure,
-  ...figureColumns(textMap(values.texts, MODEL_FIGURES), MODEL_FIGURES),
-});
+export function modelRecord(values: ModelValues): Record<string, unknown> {
+  const record: Record<string, unknown> = { label: values.label, estimator: values.estimator, meanStructure: values.meanStructure };
+  putFigures(record, values.texts, MODEL_FIGURES, MODEL_TEXT_ATTRIBUTES);
+  return record;
+}
 
-export const comparisonRecord = (values: ComparisonValues) => {
-  const { texts, ...rest } = values;
-  return { ...rest, ...figureColumns(textMap(texts, COMPARISON_FIGURES), COMPARISON_FIGURES) };
-};
+export function comparisonRecord(values: ComparisonValues): Record<string, unknown> {
+  const record: Record<string, unknown> = {
+    label: values.label,
+    method: values.method,
+    nested: values.nested,
+    alphaText: values.alphaText,
+    alpha: values.alpha,
+    location: values.location,
+    preferred: values.preferred,
+    invarianceClaimed: values.invarianceClaimed,
+    notes: values.notes,
+  };
+  putFigures(record, values.texts, COMPARISON_FIGURES, COMPARISON_TEXT_ATTRIBUTES);
+  return record;
+}
 
 function modelInputOf(values: ModelValues): ModelInput {
   const input: ModelInput = { label: values.label, estimator: values.estimator ?? undefined };

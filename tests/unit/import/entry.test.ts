@@ -96,3 +96,14 @@ describe("the rejected-rows error column", () => {
     expect(await text(withoutErrorColumn(pieces(other, 5)))).toBe(other);
   });
 });
+
+describe("stored figure values", () => {
+  it("follow the same rule as figureColumns (the curation forms and the demo seed)", async () => {
+    const { figureColumns } = await import("@/lib/curation/figure-columns");
+    const { MODEL_FIGURES } = await import("@/models/figures");
+    const texts = ["9.20", "26", "< .001", "= .032", "p = .04", ".000", null, "-12.5", "1,024", "≥ .95", "abc", null, null, null, null, null, null, null, null, null];
+    const record = modelRecord({ label: "A", estimator: "ML", meanStructure: null, texts });
+    const expected = figureColumns(Object.fromEntries(MODEL_FIGURES.map((f, i) => [f, texts[i] ?? undefined]).filter(([, t]) => t !== undefined)), MODEL_FIGURES);
+    for (const [key, value] of Object.entries(expected)) expect([key, record[key]]).toEqual([key, value]);
+  });
+});
