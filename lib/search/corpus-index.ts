@@ -172,6 +172,14 @@ export function buildCorpusIndex(source: SearchSource, signature: string): Corpu
     orders: new Map(),
   };
 
+  // one copy of each label text: "Model 1" and "Configural" recur across thousands of rows
+  const strings = new Map<string, string>();
+  const intern = (value: string) => {
+    const known = strings.get(value);
+    if (known !== undefined) return known;
+    strings.set(value, value);
+    return value;
+  };
   let flagAt = 0;
   for (let row = 0; row < size; row += 1) {
     const comparison = comparisons[row];
@@ -189,10 +197,10 @@ export function buildCorpusIndex(source: SearchSource, signature: string): Corpu
       if (id !== undefined) mask |= 1 << id;
     }
     index.estimators[row] = mask;
-    index.comparisonLabel[row] = comparison.label;
-    index.sampleLabel[row] = sample?.label ?? "";
-    index.restrictedLabel[row] = restricted?.label ?? "";
-    index.freeLabel[row] = free?.label ?? "";
+    index.comparisonLabel[row] = intern(comparison.label);
+    index.sampleLabel[row] = intern(sample?.label ?? "");
+    index.restrictedLabel[row] = intern(restricted?.label ?? "");
+    index.freeLabel[row] = intern(free?.label ?? "");
     index.restrictedEstimator[row] = restricted?.estimator ?? null;
     index.freeEstimator[row] = free?.estimator ?? null;
     index.flagStart[row] = flagAt;
