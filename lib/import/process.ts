@@ -2,7 +2,7 @@
 // reads, validates and plans every row against what is stored, handing accepted rows to the writer when
 // there is one. The sheet is never held in memory whole.
 import type { Transaction } from "sequelize";
-import { readSheetBatches, type ByteSource } from "@/lib/csv";
+import { readSheetBatches, type ByteSource, type SheetRow } from "@/lib/csv";
 import { recheck } from "@/lib/recheck";
 import type { Finding, RecheckSettings } from "@/lib/recheck/types";
 import { Comparison, FitModel, Paper, Sample } from "@/models";
@@ -59,6 +59,23 @@ function keyOf(entry: RowEntry | null, raw: { doi?: string; paperRef?: string })
   return raw.doi?.trim() || raw.paperRef?.trim() || null;
 }
 
+/** Rows judged together: the stored state of their papers is loaded in one go (a few queries per group). */
+const GROUP_ROWS = 2000;
+
+/** The reader's batches (one per input piece, a few hundred rows) joined into groups of about GROUP_ROWS. */
+async function* groups(batches: AsyncGenerator<SheetRow[]>, progress: ImportProgress): AsyncGenerator<SheetRow[]> {
+  let group: SheetRow[] = [];
+  for await (const batch of batches) {
+    progress.read += batch.length;
+    group = group.length === 0 ? batch : group.concat(batch);
+    if (group.length >= GROUP_ROWS) {
+      yield group;
+      group = [];
+    }
+  }
+  if (group.length > 0) yield group;
+}
+
 export async function processSheet(options: ProcessOptions): Promise<SheetSummary> {
   const { progress, transaction, writer } = options;
   const existing = emptyExisting();
@@ -67,11 +84,10 @@ export async function processSheet(options: ProcessOptions): Promise<SheetSummar
   const summary: SheetSummary = { total: 0, new: 0, updated: 0, unchanged: 0, rejected: 0, rowErrors: [], findingCounts: {} };
   progress.phase = writer ? "storing" : "validating";
 
-  // One streamed pass. Each batch of rows (one input piece) is read and validated first; the stored state
+  // One streamed pass. Each group of rows is read and validated first; the stored state
   // of the papers it names that were not met before is then loaded in bulk, and only then is each row
   // judged — so identity lookups cost a few queries per batch, never one per row.
-  for await (const batch of readSheetBatches(options.open())) {
-    progress.read += batch.length;
+  for await (const batch of groups(readSheetBatches(options.open()), progress)) {
     const readings = batch.map(readEntry);
     const dois: string[] = [];
     const refs: string[] = [];
