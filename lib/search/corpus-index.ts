@@ -98,8 +98,6 @@ export function buildCorpusIndex(source: SearchSource, signature: string): Corpu
   const paperIndex = new Map(papers.map((paper, index) => [paper.id, index]));
   const journals = dictionary(papers.map((paper) => paper.journal));
   const fields = dictionary(papers.map((paper) => paper.field));
-  const samples = new Map(source.samples.map((sample) => [sample.id, sample]));
-  const models = new Map(source.models.map((model) => [model.id, model]));
 
   // Rows grouped by paper, then by comparison id, so a paper's rows are one contiguous run.
   const comparisons = source.comparisons.filter((comparison) => paperIndex.has(comparison.paperId));
@@ -183,26 +181,23 @@ export function buildCorpusIndex(source: SearchSource, signature: string): Corpu
   let flagAt = 0;
   for (let row = 0; row < size; row += 1) {
     const comparison = comparisons[row];
-    const sample = samples.get(comparison.sampleId);
-    const restricted = models.get(comparison.restrictedModelId);
-    const free = models.get(comparison.freeModelId);
     index.comparisonId[row] = comparison.id;
     index.paper[row] = paperIndex.get(comparison.paperId)!;
     index.method[row] = methodId.get(comparison.method) ?? NONE;
-    index.groups[row] = sample?.groups ?? 1;
-    index.sampleN[row] = sample?.n ?? NaN;
+    index.groups[row] = comparison.groups ?? 1;
+    index.sampleN[row] = comparison.n ?? NaN;
     let mask = 0;
-    for (const model of [restricted, free]) {
-      const id = model?.estimator ? estimatorId.get(model.estimator) : undefined;
+    for (const estimator of [comparison.restrictedEstimator, comparison.freeEstimator]) {
+      const id = estimator ? estimatorId.get(estimator) : undefined;
       if (id !== undefined) mask |= 1 << id;
     }
     index.estimators[row] = mask;
     index.comparisonLabel[row] = intern(comparison.label);
-    index.sampleLabel[row] = intern(sample?.label ?? "");
-    index.restrictedLabel[row] = intern(restricted?.label ?? "");
-    index.freeLabel[row] = intern(free?.label ?? "");
-    index.restrictedEstimator[row] = restricted?.estimator ?? null;
-    index.freeEstimator[row] = free?.estimator ?? null;
+    index.sampleLabel[row] = intern(comparison.sampleLabel ?? "");
+    index.restrictedLabel[row] = intern(comparison.restrictedLabel ?? "");
+    index.freeLabel[row] = intern(comparison.freeLabel ?? "");
+    index.restrictedEstimator[row] = comparison.restrictedEstimator;
+    index.freeEstimator[row] = comparison.freeEstimator;
     index.flagStart[row] = flagAt;
     for (const flag of flagsByRow[row]) {
       index.flagCode[flagAt] = flag.code;

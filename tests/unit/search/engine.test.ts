@@ -22,8 +22,7 @@ function random(seed: number) {
 function corpus(seed: number): SearchSource {
   const next = random(seed);
   const pick = <T>(list: readonly T[]) => list[Math.floor(next() * list.length)];
-  const source: SearchSource = { papers: [], comparisons: [], samples: [], models: [], flags: [], dispositions: [], engineVersions: ["1.0.0"] };
-  let sampleId = 1;
+  const source: SearchSource = { papers: [], comparisons: [], flags: [], dispositions: [], engineVersions: ["1.0.0"] };
   let modelId = 1;
   let comparisonId = 1;
   for (let paperId = 1; paperId <= 60; paperId += 1) {
@@ -39,15 +38,16 @@ function corpus(seed: number): SearchSource {
       createdBy: 1 + Math.floor(next() * 3),
       verifiedAt: new Date(Date.UTC(2026, 0, 1 + paperId)),
     });
-    const sid = sampleId++;
-    source.samples.push({ id: sid, label: "Sample 1", n: 300, groups: 1 + Math.floor(next() * 3) });
+    const groups = 1 + Math.floor(next() * 3);
     const count = Math.floor(next() * 4);
     for (let c = 0; c < count; c += 1) {
       const a = modelId++;
       const b = modelId++;
-      source.models.push({ id: a, label: `Model ${a}`, estimator: next() < 0.1 ? null : pick(ESTIMATORS) }, { id: b, label: `Model ${b}`, estimator: pick(ESTIMATORS) });
       const cid = comparisonId++;
-      source.comparisons.push({ id: cid, paperId, sampleId: sid, label: `Comparison ${c + 1}`, method: pick(METHODS), restrictedModelId: a, freeModelId: b });
+      source.comparisons.push({
+        id: cid, paperId, label: `Comparison ${c + 1}`, method: pick(METHODS), sampleLabel: "Sample 1", n: 300, groups,
+        restrictedLabel: `Model ${a}`, restrictedEstimator: next() < 0.1 ? null : pick(ESTIMATORS), freeLabel: `Model ${b}`, freeEstimator: pick(ESTIMATORS),
+      });
       const flags = Math.floor(next() * 4);
       for (let f = 0; f < flags; f += 1) {
         const fingerprint = `fp-${cid}-${f}`;
@@ -68,11 +68,10 @@ function directMatch(source: SearchSource, comparison: SearchSource["comparisons
   if (scope.kind === "owner" && paper.createdBy !== scope.userId) return false;
   const states = scope.kind === "staff" && filters.state.length === 0 ? ["verified"] : filters.state;
   if (scope.kind !== "public" && states.length && !states.includes(paper.state)) return false;
-  const sample = source.samples.find((item) => item.id === comparison.sampleId)!;
-  const estimators = [comparison.restrictedModelId, comparison.freeModelId].map((id) => source.models.find((model) => model.id === id)!.estimator);
+  const estimators = [comparison.restrictedEstimator, comparison.freeEstimator];
   if (filters.method.length && !filters.method.includes(comparison.method)) return false;
   if (filters.estimator.length && !estimators.some((estimator) => estimator !== null && filters.estimator.includes(estimator))) return false;
-  if (filters.groups.length && !filters.groups.includes(sample.groups)) return false;
+  if (filters.groups.length && !filters.groups.includes(comparison.groups ?? 1)) return false;
   if (filters.yearFrom !== undefined && (paper.year === null || paper.year < filters.yearFrom)) return false;
   if (filters.yearTo !== undefined && (paper.year === null || paper.year > filters.yearTo)) return false;
   if (filters.journal.length && (paper.journal === null || !filters.journal.includes(paper.journal))) return false;
