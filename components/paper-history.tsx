@@ -14,6 +14,8 @@ const ACTION_WORDS: Record<string, string> = {
   seed: "demo data",
 };
 
+const HIDDEN_FIELDS = new Set(["updatedAt", "createdAt", "curatorComment", "verifiedBy", "submittedAt", "verifiedAt"]);
+
 const ENTITY_WORDS: Record<string, string> = { Paper: "paper", Sample: "sample", FitModel: "model", Comparison: "comparison" };
 
 interface Change {
@@ -50,10 +52,17 @@ export function PaperHistory({ events, title = "History of this entry" }: { even
         <ol className="space-y-1.5 text-sm">
           {events.map((event) => {
             const changes = ((event.after as { changes?: Change[] } | null)?.changes ?? []) as Change[];
+            // a step or a metadata update carries the changed fields themselves, before and after
+            const fields = ["update", "submit", "return", "verify"].includes(event.action) && event.after ? Object.entries(event.after).filter(([field]) => !HIDDEN_FIELDS.has(field)) : [];
             return (
               <li key={event.id} className="border-l-2 border-rule pl-2">
                 <span className="figures text-xs text-ink-faint">{event.at.slice(0, 16).replace("T", " ")}</span>{" "}
                 <span className="font-medium">{event.actorName ?? "Fitledger"}</span> {describe(event)}
+                {fields.length > 0 ? (
+                  <p className="text-xs text-ink-soft">
+                    {fields.map(([field, after]) => `${field} ${shown(event.before?.[field])} → ${shown(after)}`).join("; ")}
+                  </p>
+                ) : null}
                 {changes.length > 0 ? (
                   <ul className="mt-0.5 text-xs text-ink-soft">
                     {changes.slice(0, 40).map((change, index) => (

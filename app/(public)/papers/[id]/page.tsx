@@ -8,6 +8,7 @@ import { PaperHistory } from "@/components/paper-history";
 import { ComparisonsTable, ModelsTable, SamplesTable } from "@/components/paper-tables";
 import { Notice } from "@/components/ui/notice";
 import { getCurrentUser } from "@/lib/auth/current-user";
+import { hasRole } from "@/lib/auth/roles";
 import { canEditCoding, canRead } from "@/lib/curation/rules";
 import { readPaper, readPaperHistory, type FindingView, type PaperView } from "@/lib/db/queries/papers";
 import { CorrectionForm } from "./correction-form";
@@ -68,7 +69,8 @@ export default async function PaperPage({ params, searchParams }: Props) {
   const loaded = await load(id);
   if (!loaded) notFound();
   const { paper, user } = loaded;
-  const insider = user !== null && (user.id === paper.createdBy || ["curator", "admin"].includes(user.role));
+  // the history is for contributors and curators (DESIGN §3); an unverified entry reaches only its coder and curators at all
+  const insider = user !== null && hasRole(user.role, "contributor");
   const history = insider ? await readPaperHistory({ paperId: paper.id }) : [];
   const highlightCode = typeof query.finding === "string" && /^[a-z-]{3,60}$/.test(query.finding) ? query.finding : undefined;
   const highlightComparison = query.comparison && /^\d+$/.test(query.comparison) ? Number(query.comparison) : undefined;
