@@ -1,8 +1,8 @@
 import type { Sequelize } from "sequelize";
 import { AuditEvent } from "./audit-event";
 import { Comparison } from "./comparison";
-import { DoiLookup } from "./doi-lookup";
 import { Correction } from "./correction";
+import { DoiLookup } from "./doi-lookup";
 import { FitModel } from "./fit-model";
 import { Flag } from "./flag";
 import { FlagDisposition } from "./flag-disposition";
