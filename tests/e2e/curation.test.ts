@@ -193,4 +193,39 @@ describe.skipIf(!e2e.enabled)("curation in the browser", () => {
     expect(await table.locator("tbody tr td:first-child").allTextContents()).toEqual([...ascending].reverse());
     expect(problems).toEqual([]);
   });
+
+  it("two edits of the same paper: the second save gets a conflict notice and keeps what was typed", async () => {
+    const { page: first } = await openPage(browser, e2e.baseUrl);
+    await signIn(first, CONTRIBUTOR, "/workbench/new");
+    await first.getByRole("tab", { name: "By hand" }).click();
+    await first.locator("#paper-title").fill("A conference paper typed by hand");
+    await first.locator("#paper-authors").fill("Rautio, Aino\n{Fitledger Consortium}");
+    await first.locator("#paper-year").fill("2023");
+    await first.getByRole("button", { name: "Create the paper and start coding" }).click();
+    await first.waitForURL(/\/workbench\/papers\/\d+$/);
+    const address = new URL(first.url()).pathname;
+
+    const { page: second } = await openPage(browser, e2e.baseUrl);
+    await signIn(second, CONTRIBUTOR, address);
+
+    await first.getByRole("button", { name: "Add a model" }).click();
+    await first.locator('[name="models.0.label"]').fill("One factor");
+    await first.locator('[name="models.0.chisq"]').fill("88.41");
+    await first.locator('[name="models.0.df"]').fill("27");
+    await first.getByRole("button", { name: "Save coding" }).click();
+    await first.getByText(/Saved \(version 2\)/).waitFor();
+
+    await second.getByRole("button", { name: "Add a model" }).click();
+    await second.locator('[name="models.0.label"]').fill("Two factors");
+    await second.locator('[name="models.0.chisq"]').fill("41.07");
+    await second.getByRole("button", { name: "Save coding" }).click();
+    await second.getByText("Not saved: someone else saved first").waitFor();
+    expect(await second.getByText(/you started from version 1; it is now at version 2/).count()).toBe(1);
+    expect(await second.locator('[name="models.0.label"]').inputValue()).toBe("Two factors");
+    expect(await second.locator('[name="models.0.chisq"]').inputValue()).toBe("41.07");
+    await second.getByRole("button", { name: /Reload the saved version here/ }).click();
+    await second.waitForLoadState("load");
+    await second.locator('[name="models.0.label"]').waitFor();
+    expect(await second.locator('[name="models.0.label"]').inputValue()).toBe("One factor");
+  });
 });
