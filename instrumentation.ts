@@ -7,4 +7,6 @@ export async function register() {
   if (process.env.NEXT_RUNTIME !== "nodejs") return;
   const { startMailSender } = await import("@/lib/mail/sender");
   startMailSender();
+  const { startDigestSchedule } = await import("@/lib/digest/schedule");
+  startDigestSchedule();
 }

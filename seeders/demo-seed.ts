@@ -20,8 +20,9 @@ export interface SeedSummary {
   flagsWritten: number;
 }
 
+/** Entry dates spread over the two years before the demo (mid-2024 to early 2026), never in the future. */
 function dayOf(index: number, offsetDays: number): Date {
-  return new Date(Date.UTC(2026, 0, 5) + (index * 37 + offsetDays) * 3_600_000 * 24 / 8);
+  return new Date(Date.UTC(2024, 5, 1) + (index * 4 + offsetDays) * 86_400_000);
 }
 
 async function seedPaper(database: Database, paper: DemoPaper, index: number, users: Map<string, number>, settings: Awaited<ReturnType<typeof readRecheckSettings>>): Promise<{ comparisons: number; flags: number }> {
@@ -45,9 +46,9 @@ async function seedPaper(database: Database, paper: DemoPaper, index: number, us
         state: paper.state,
         curatorComment: paper.curatorComment,
         createdBy: users.get(paper.coder)!,
-        submittedAt: paper.state === "draft" ? null : dayOf(index, 10),
+        submittedAt: paper.state === "draft" ? null : dayOf(index, 1),
         verifiedBy: paper.verifier ? users.get(paper.verifier)! : null,
-        verifiedAt: paper.verifier ? dayOf(index, 30) : null,
+        verifiedAt: paper.verifier ? dayOf(index, 3) : null,
       },
       context,
     );

@@ -19,9 +19,7 @@ import { parseSearchQuery } from "@/lib/validation/search";
 export const DIGEST_INTERVAL_MS = 23 * 60 * 60 * 1000;
 const LISTED = 20;
 
-// The outbox's MailKind list (lib/mail/templates.ts) has no digest kind yet; this is the kind the
-// digest's rows carry. Requested from the accounts engineer: add "search-digest" to MailKind.
-const DIGEST_KIND = "search-digest" as MailKind;
+const DIGEST_KIND: MailKind = "search-digest";
 
 export function digestMail(input: { name: string; searchName: string; total: number; hits: ComparisonHit[]; exploreUrl: string; manageUrl: string; since: Date }): MailContent {
   const lines = input.hits.map((hit) => {

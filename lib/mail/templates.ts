@@ -14,7 +14,8 @@ export type MailKind =
   | "role-changed"
   | "password-reset"
   | "password-changed"
-  | "entry-returned";
+  | "entry-returned"
+  | "search-digest";
 
 /** Kinds whose body holds a secret (a reset link): the sender blanks the body once it is delivered. */
 export const SENSITIVE_KINDS: ReadonlySet<MailKind> = new Set(["password-reset"]);

@@ -2,6 +2,7 @@ import type { Metadata } from "next";
 import { getCurrentUser } from "@/lib/auth/current-user";
 import { ROLE_LABELS } from "@/lib/auth/roles";
 import { readPerson } from "@/lib/db/queries/users";
+import { SavedSearches } from "@/components/saved-searches";
 import { PasswordForm } from "./password-form";
 import { ProfileForm } from "./profile-form";
 
@@ -37,6 +38,7 @@ export default async function AccountPage() {
         </h2>
         <PasswordForm />
       </section>
+      <SavedSearches userId={user.id} />
     </div>
   );
 }
