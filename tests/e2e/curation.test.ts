@@ -111,7 +111,16 @@ describe.skipIf(!e2e.enabled)("curation in the browser", () => {
     await signIn(page, CURATOR, "/review");
     await page.getByRole("link", { name: registryPaper.title }).click();
     await page.waitForURL(`**/review/${paperId}`);
-    await page.locator('[data-code="df-difference-mismatch"]').waitFor();
+    const finding = page.locator('[data-code="df-difference-mismatch"]');
+    await finding.waitFor();
+    // "explained" needs the link to the erratum or reply: said next to the link field
+    await finding.getByLabel("Verdict", { exact: true }).selectOption({ label: "Explained (erratum or author reply)" });
+    await finding.getByRole("button", { name: "Record" }).click();
+    await finding.getByText("Link the erratum or the author's reply").waitFor();
+    await finding.getByLabel("Verdict", { exact: true }).selectOption({ label: "Coding error (fixed)" });
+    await finding.getByLabel("Note").fill("Table 2 prints Δdf = 4.");
+    await finding.getByRole("button", { name: "Record" }).click();
+    await finding.getByText("Curator's verdict: Coding error (fixed)").waitFor();
     await page.getByLabel("Comment for the contributor").fill("Table 2: the Δdf of metric vs configural is 4 (24 − 20), not 3.");
     await page.getByRole("button", { name: "Return with this comment" }).click();
     await page.getByTestId("review-outcome").getByText("The contributor has the comment").waitFor();
