@@ -125,6 +125,19 @@ function scanNumber(raw: string, start: number, end: number): PrintedNumber | nu
 
 /** Reads an exact integer count ("24", "-3"; "24.0" is accepted as 24). Null when not an integer. */
 export function readPrintedInteger(raw: string): number | null {
+  // Fast path for what counts nearly always look like, 1–15 plain ASCII digits: the value is exact, and
+  // no PrintedNumber is built only to be thrown away (a comparison has up to eleven such cells).
+  const length = raw.length;
+  if (length > 0 && length <= 15) {
+    let value = 0;
+    let i = 0;
+    for (; i < length; i++) {
+      const c = raw.charCodeAt(i);
+      if (c < 48 || c > 57) break;
+      value = value * 10 + (c - 48);
+    }
+    if (i === length) return value;
+  }
   const printed = readPrintedNumber(raw);
   if (printed === null || !Number.isInteger(printed.value)) return null;
   return printed.value;

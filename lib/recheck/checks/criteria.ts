@@ -36,13 +36,20 @@ export function checkModelCriteria(m: ParsedModel, subject: "a" | "b", n: number
   const ll = m.loglik;
   const q = m.npar;
   if (m.aic !== null) {
-    const conventions: Convention[] = [{ name: "−2LL + 2q", value: { lo: -2 * ll.hi + 2 * q, hi: -2 * ll.lo + 2 * q } }];
-    // Some programs print χ²-based AIC variants (χ² + 2q; χ² − 2df); a printed value is consistent
-    // when any convention reproduces it.
-    if (m.chisq !== null) conventions.push({ name: "χ² + 2q", value: { lo: m.chisq.lo + 2 * q, hi: m.chisq.hi + 2 * q } });
-    if (m.chisq !== null && m.df !== null && m.df >= 0) conventions.push({ name: "χ² − 2df", value: { lo: m.chisq.lo - 2 * m.df, hi: m.chisq.hi - 2 * m.df } });
     const aic = m.aic;
-    judgeCriterion(report, subject, () => `${modelName(subject, m.label)}: reported AIC = ${aic.text}, but −2·(${ll.text}) + 2·${q}`, aic, conventions, subject === "a" ? "a.aicFromLoglik" : "b.aicFromLoglik");
+    const primary = { lo: -2 * ll.hi + 2 * q, hi: -2 * ll.lo + 2 * q };
+    const key = subject === "a" ? "a.aicFromLoglik" : "b.aicFromLoglik";
+    // the usual case: the log-likelihood convention reproduces it, and no list of conventions is built
+    if (meets(aic.lo, aic.hi, primary.lo, primary.hi)) {
+      report.set(key, primary);
+    } else {
+      const conventions: Convention[] = [{ name: "−2LL + 2q", value: primary }];
+      // Some programs print χ²-based AIC variants (χ² + 2q; χ² − 2df); a printed value is consistent
+      // when any convention reproduces it.
+      if (m.chisq !== null) conventions.push({ name: "χ² + 2q", value: { lo: m.chisq.lo + 2 * q, hi: m.chisq.hi + 2 * q } });
+      if (m.chisq !== null && m.df !== null && m.df >= 0) conventions.push({ name: "χ² − 2df", value: { lo: m.chisq.lo - 2 * m.df, hi: m.chisq.hi - 2 * m.df } });
+      judgeCriterion(report, subject, () => `${modelName(subject, m.label)}: reported AIC = ${aic.text}, but −2·(${ll.text}) + 2·${q}`, aic, conventions, key);
+    }
   }
   if (m.bic !== null) {
     if (n === null) {
@@ -50,11 +57,17 @@ export function checkModelCriteria(m: ParsedModel, subject: "a" | "b", n: number
       return;
     }
     const lnN = Math.log(n);
-    const conventions: Convention[] = [{ name: "−2LL + q·ln N", value: { lo: -2 * ll.hi + q * lnN, hi: -2 * ll.lo + q * lnN } }];
+    const bic = m.bic;
+    const primary = { lo: -2 * ll.hi + q * lnN, hi: -2 * ll.lo + q * lnN };
+    const key = subject === "a" ? "a.bicFromLoglik" : "b.bicFromLoglik";
+    if (meets(bic.lo, bic.hi, primary.lo, primary.hi)) {
+      report.set(key, primary);
+      return;
+    }
+    const conventions: Convention[] = [{ name: "−2LL + q·ln N", value: primary }];
     if (m.chisq !== null) conventions.push({ name: "χ² + q·ln N", value: { lo: m.chisq.lo + q * lnN, hi: m.chisq.hi + q * lnN } });
     if (m.chisq !== null && m.df !== null && m.df >= 0) conventions.push({ name: "χ² − df·ln N", value: { lo: m.chisq.lo - m.df * lnN, hi: m.chisq.hi - m.df * lnN } });
-    const bic = m.bic;
-    judgeCriterion(report, subject, () => `${modelName(subject, m.label)}: reported BIC = ${bic.text}, but −2·(${ll.text}) + ${q}·ln ${n}`, bic, conventions, subject === "a" ? "a.bicFromLoglik" : "b.bicFromLoglik");
+    judgeCriterion(report, subject, () => `${modelName(subject, m.label)}: reported BIC = ${bic.text}, but −2·(${ll.text}) + ${q}·ln ${n}`, bic, conventions, key);
   }
 }
 
@@ -84,11 +97,11 @@ export function checkCriteriaArithmetic(c: ParsedComparison, a: ParsedModel, b: 
     report.skip("information-criteria-inconsistent", "comparison", `ΔAIC/ΔBIC against Δχ²: ${reason}`);
   }
   const ctx: CriterionContext = { report, dChisq: usable ? dChisq : null };
-  if (hasAic) checkCriterion(ctx, "AIC", a.aic, b.aic, c.dAic, 2 * dDf, 2, String(dDf));
+  if (hasAic) checkCriterion(ctx, "AIC", a.aic, b.aic, c.dAic, 2 * dDf, 2, dDf);
   if (hasBic) {
     const n = c.sample.n;
     if (n === null) report.skip("information-criteria-inconsistent", "comparison", "ΔBIC needs N");
-    else checkCriterion(ctx, "BIC", a.bic, b.bic, c.dBic, dDf * Math.log(n), dDf, `ln ${n}`);
+    else checkCriterion(ctx, "BIC", a.bic, b.bic, c.dBic, dDf * Math.log(n), dDf, n);
   }
 }
 
@@ -98,10 +111,13 @@ interface CriterionContext {
   dChisq: Interval | null;
 }
 
-/** "Δχ² − 2·Δdf = 22.11 − 2·6" (AIC) or "Δχ² − Δdf·ln N = 22.11 − 6·ln 301" (BIC). */
-function expectedText(label: "AIC" | "BIC", dChisq: Interval | null, factor: number, unit: string): string {
+/**
+ * "Δχ² − 2·Δdf = 22.11 − 2·6" (AIC, unit = Δdf) or "Δχ² − Δdf·ln N = 22.11 − 6·ln 301" (BIC, unit = N);
+ * built only for a message.
+ */
+function expectedText(label: "AIC" | "BIC", dChisq: Interval | null, factor: number, unit: number): string {
   const chi = dChisq ? showInterval(dChisq.lo, dChisq.hi, 2) : "?";
-  return label === "AIC" ? `Δχ² − 2·Δdf = ${chi} − 2·${unit}` : `Δχ² − Δdf·ln N = ${chi} − ${factor}·${unit}`;
+  return label === "AIC" ? `Δχ² − 2·Δdf = ${chi} − 2·${unit}` : `Δχ² − Δdf·ln N = ${chi} − ${factor}·ln ${unit}`;
 }
 
 /** One criterion: the printed pair and Δ against Δχ² − penalty, and the printed Δ against the pair. */
@@ -113,7 +129,7 @@ function checkCriterion(
   printedDelta: PrintedNumber | null,
   penalty: number,
   penaltyFactor: number,
-  penaltyUnit: string,
+  penaltyUnit: number,
 ): void {
   const { report, dChisq } = ctx;
   const expected = dChisq ? { lo: dChisq.lo - penalty, hi: dChisq.hi - penalty } : null;

@@ -19,10 +19,10 @@ function fails(m: ParsedModel, cutoffs: RecheckSettings["fitCutoffs"]): boolean 
 }
 
 function whyFails(m: ParsedModel, cutoffs: RecheckSettings["fitCutoffs"]): string {
-  const reasons: string[] = [];
-  if (m.rmsea !== null && m.rmsea.lo > cutoffs.rmseaMax) reasons.push(`RMSEA = ${m.rmsea.text} > ${cutoffs.rmseaMax}`);
-  if (m.cfi !== null && m.cfi.hi < cutoffs.cfiMin) reasons.push(`CFI = ${m.cfi.text} < ${cutoffs.cfiMin}`);
-  return reasons.join(", ");
+  // the reasons joined by ", ", without building a list for them
+  const rmsea = m.rmsea !== null && m.rmsea.lo > cutoffs.rmseaMax ? `RMSEA = ${m.rmsea.text} > ${cutoffs.rmseaMax}` : "";
+  const cfi = m.cfi !== null && m.cfi.hi < cutoffs.cfiMin ? `CFI = ${m.cfi.text} < ${cutoffs.cfiMin}` : "";
+  return rmsea === "" ? cfi : cfi === "" ? rmsea : `${rmsea}, ${cfi}`;
 }
 
 /** Neither model meets the configured cutoffs (common practice: RMSEA ≤ .08, CFI ≥ .90). */
@@ -80,23 +80,22 @@ export function checkInvarianceClaim(c: ParsedComparison, a: ParsedModel, b: Par
 
 /** Printed ΔCFI / ΔRMSEA against the difference of the printed values (restricted − free). */
 export function checkDeltaFit(c: ParsedComparison, a: ParsedModel, b: ParsedModel, report: Report): void {
-  const pairs: Array<[string, PrintedNumber | null, PrintedNumber | null, PrintedNumber | null]> = [
-    ["CFI", c.dCfi, a.cfi, b.cfi],
-    ["RMSEA", c.dRmsea, a.rmsea, b.rmsea],
-  ];
-  for (const [label, printed, pa, pb] of pairs) {
-    if (printed === null) continue;
-    if (pa === null || pb === null) {
-      report.skip("delta-fit-mismatch", "comparison", `Δ${label} needs both models' ${label}`);
-      continue;
-    }
-    const d = differenceOf(pa, pb);
-    if (!meets(printed.lo, printed.hi, d.lo, d.hi)) {
-      report.add("delta-fit-mismatch", "comparison", `reported Δ${label} = ${printed.text}, but ${pa.text} − ${pb.text} = ${showInterval(d.lo, d.hi, 3)} (restricted − free)`, {
-        reported: printed.text,
-        recomputed: d,
-        index: label,
-      });
-    }
+  // most comparisons print neither Δ: nothing to build then
+  if (c.dCfi !== null) checkDelta("CFI", c.dCfi, a.cfi, b.cfi, report);
+  if (c.dRmsea !== null) checkDelta("RMSEA", c.dRmsea, a.rmsea, b.rmsea, report);
+}
+
+function checkDelta(label: string, printed: PrintedNumber, pa: PrintedNumber | null, pb: PrintedNumber | null, report: Report): void {
+  if (pa === null || pb === null) {
+    report.skip("delta-fit-mismatch", "comparison", `Δ${label} needs both models' ${label}`);
+    return;
+  }
+  const d = differenceOf(pa, pb);
+  if (!meets(printed.lo, printed.hi, d.lo, d.hi)) {
+    report.add("delta-fit-mismatch", "comparison", `reported Δ${label} = ${printed.text}, but ${pa.text} − ${pb.text} = ${showInterval(d.lo, d.hi, 3)} (restricted − free)`, {
+      reported: printed.text,
+      recomputed: d,
+      index: label,
+    });
   }
 }

@@ -216,6 +216,11 @@ function checkRmsea(ctx: ModelCheckContext, df: number): void {
   );
 }
 
+/** Moments minus free parameters, with or without a mean structure (see checkDfRecount). */
+function recount(means: boolean, p: number, k: number, g: number, npar: number): number {
+  return g * (p * (p + 1) / 2 + (means ? p : 0)) - g * (k * (k + 1) / 2 + (means ? k : 0)) - npar;
+}
+
 /**
  * df = G·(p(p+1)/2 + [mean structure]·p) − q, less the k(k+1)/2 (+ k) moments of fixed-x covariates,
  * which are neither moments nor parameters (DESIGN §4.3; e.g. SAS/STAT PROC CALIS documentation).
@@ -235,11 +240,18 @@ function checkDfRecount(ctx: ModelCheckContext): void {
   const p = m.nObserved;
   const k = m.nFixedX ?? 0;
   const g = sample.groups;
+  const npar = m.npar;
+  // The readings one at a time, the common match first, so that no lists are built unless it fails.
+  const firstReading = m.meanStructure === null ? false : m.meanStructure;
+  const firstRecount = recount(firstReading, p, k, g, npar);
+  if (firstRecount === m.df) {
+    report.set(KEYS[subject].dfRecount, firstRecount);
+    return;
+  }
   const readings = m.meanStructure === null ? [false, true] : [m.meanStructure];
-  const recounts: number[] = [];
-  for (const means of readings) {
-    const moments = g * (p * (p + 1) / 2 + (means ? p : 0)) - g * (k * (k + 1) / 2 + (means ? k : 0));
-    const df = moments - m.npar;
+  const recounts: number[] = [firstRecount];
+  if (readings.length > 1) {
+    const df = recount(true, p, k, g, npar);
     recounts.push(df);
     if (df === m.df) {
       report.set(KEYS[subject].dfRecount, df);
