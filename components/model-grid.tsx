@@ -115,7 +115,7 @@ export function ModelGrid({ rows, samples, figures = MODEL_FIGURES, errors, disa
               <tr key={row.key} className="border-t border-rule align-top">
                 <td className="figures px-1 py-1 text-xxs text-ink-faint">{index + 1}</td>
                 {samples.length > 1 ? (
-                  <td className="px-1 py-1">
+                  <td className="min-w-28 px-1 py-1">
                     <select name={`models.${index}.sampleKey`} aria-label={`Model ${index + 1}: sample`} value={row.sampleKey} disabled={disabled} onChange={(event) => onChange(index, "sampleKey", event.target.value)} className={`${CELL} border-rule-strong`}>
                       {samples.map((sample) => (
                         <option key={sample.key} value={sample.key}>{sample.label}</option>

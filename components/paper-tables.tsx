@@ -48,9 +48,11 @@ export function ModelsTable({ models, samples }: { models: PaperModelView[]; sam
   return <SortableTable rows={models} columns={columns} caption="Reported models, figures as printed" rowId={(row) => row.id} rowAnchor={(row) => `model-${row.id}`} />;
 }
 
-export function ComparisonsTable({ comparisons, findingCounts, highlightComparison }: { comparisons: PaperComparisonView[]; findingCounts: Record<number, { error: number; warning: number; note: number }>; highlightComparison?: number }) {
+export function ComparisonsTable({ comparisons, samples, findingCounts, highlightComparison }: { comparisons: PaperComparisonView[]; samples: PaperSampleView[]; findingCounts: Record<number, { error: number; warning: number; note: number }>; highlightComparison?: number }) {
+  const sampleLabel = new Map(samples.map((sample) => [sample.id, sample.label]));
   const columns: SortableColumn<PaperComparisonView>[] = [
     { key: "label", label: "Comparison", value: (row) => row.label },
+    ...(samples.length > 1 ? [{ key: "sample", label: "Sample", value: (row: PaperComparisonView) => sampleLabel.get(row.sampleId) ?? null }] : []),
     { key: "models", label: "A (restricted) vs B (free)", value: (row) => `${row.restrictedLabel} vs ${row.freeLabel}` },
     { key: "method", label: "Method", value: (row) => METHOD_WORDS[row.method] ?? row.method },
     { key: "nested", label: "Nested", value: (row) => row.nested },

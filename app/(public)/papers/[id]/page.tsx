@@ -46,9 +46,14 @@ function counts(findings: FindingView[]) {
 
 function Findings({ paper, highlightCode }: { paper: PaperView; highlightCode?: string }) {
   const groups: { id: string; heading: string; findings: FindingItem[] }[] = [];
+  const sampleLabel = new Map(paper.samples.map((sample) => [sample.id, sample.label]));
   for (const comparison of paper.comparisons) {
     const findings = paper.findings.filter((finding) => finding.comparisonId === comparison.id);
-    groups.push({ id: `findings-comparison-${comparison.id}`, heading: `${comparison.label} (${comparison.restrictedLabel} vs ${comparison.freeLabel})`, findings });
+    const models = `${comparison.restrictedLabel} vs ${comparison.freeLabel}`;
+    const name = comparison.label === models ? comparison.label : `${comparison.label} (${models})`;
+    // the same comparison is often reported for several samples: say which one
+    const heading = paper.samples.length > 1 ? `${sampleLabel.get(comparison.sampleId) ?? "Sample"}: ${name}` : name;
+    groups.push({ id: `findings-comparison-${comparison.id}`, heading, findings });
   }
   const modelOnly = paper.findings.filter((finding) => finding.comparisonId === null);
   if (modelOnly.length > 0) groups.push({ id: "findings-models", heading: "Models outside any comparison", findings: modelOnly });
@@ -126,7 +131,7 @@ export default async function PaperPage({ params, searchParams }: Props) {
       </section>
       <section aria-labelledby="comparisons-heading" className="space-y-2">
         <h2 id="comparisons-heading" className="text-sm font-semibold">Comparisons</h2>
-        <ComparisonsTable comparisons={paper.comparisons} findingCounts={counts(paper.findings)} highlightComparison={highlightComparison} />
+        <ComparisonsTable comparisons={paper.comparisons} samples={paper.samples} findingCounts={counts(paper.findings)} highlightComparison={highlightComparison} />
       </section>
       <section aria-labelledby="findings-heading" className="space-y-2">
         <h2 id="findings-heading" className="text-sm font-semibold">What the recheck found</h2>
