@@ -237,4 +237,36 @@ describe.skipIf(!e2e.enabled)("curation in the browser", () => {
     await second.locator('[name="models.0.label"]').waitFor();
     expect(await second.locator('[name="models.0.label"]').inputValue()).toBe("One factor");
   });
+
+  it("a RIS file uploaded on the new-paper page fills the metadata, particles and diacritics intact", async () => {
+    const { page, problems } = await openPage(browser, e2e.baseUrl);
+    await signIn(page, CONTRIBUTOR, "/workbench/new");
+    await page.getByRole("tab", { name: "BibTeX or RIS" }).click();
+    const ris = ["TY  - JOUR", "AU  - Øvergaard, Siri", "AU  - von Trapp, Maria", "TI  - Scaled difference tests in practice", "JO  - Methods Quarterly", "PY  - 2021", "SP  - 11", "EP  - 29", "ER  - ", ""].join("\n");
+    await page.locator('input[type="file"]').setInputFiles({ name: "record.ris", mimeType: "text/plain", buffer: Buffer.from(ris, "utf8") });
+    await page.waitForFunction(() => (document.querySelector("#citation-text") as HTMLTextAreaElement | null)?.value.includes("TY  - JOUR"));
+    await page.getByRole("button", { name: "Read the record" }).click();
+    await page.waitForFunction(() => (document.querySelector("#paper-title") as HTMLInputElement | null)?.value !== "");
+    expect(await page.locator("#paper-title").inputValue()).toBe("Scaled difference tests in practice");
+    expect(await page.locator("#paper-authors").inputValue()).toBe("Øvergaard, Siri\nvon Trapp, Maria");
+    expect(await page.locator("#paper-pages").inputValue()).toBe("11–29");
+    // BibTeX that does not parse: a message next to the text
+    await page.locator("#citation-text").fill("@article{broken, title = {An unclosed brace");
+    await page.getByRole("button", { name: "Read the record" }).click();
+    await page.locator("#citation-text-error").waitFor();
+    expect(problems.filter((problem) => !problem.includes("400"))).toEqual([]);
+  });
+
+  it("an admin rechecks everything and watches the progress bar reach the end", async () => {
+    const { page, problems } = await openPage(browser, e2e.baseUrl);
+    await signIn(page, "admin@fitledger.test", "/admin/recheck");
+    await page.getByRole("button", { name: "Recheck everything" }).click();
+    await page.getByText("Last full recheck").waitFor({ timeout: 90_000 });
+    const line = await page.locator('[aria-live="polite"]', { hasText: "papers" }).textContent();
+    const [, done, total] = /(\d+) of (\d+) papers \(100 %\)/.exec(line ?? "") ?? [];
+    expect(Number(done)).toBe(Number(total));
+    expect(Number(total)).toBeGreaterThan(150); // the seeded demo corpus has 160 papers, plus the ones made above
+    expect(await page.locator("progress").getAttribute("value")).toBe(total);
+    expect(problems).toEqual([]);
+  });
 });
