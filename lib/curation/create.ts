@@ -3,21 +3,22 @@ import { db, createAudited } from "@/lib/db";
 import { AppError } from "@/lib/errors";
 import type { z } from "zod";
 import type { newPaperSchema } from "@/lib/validation/curation";
+import type { EntryState } from "@/models/paper";
 import type { Actor } from "./rules";
 import { explainDatabaseError } from "./errors";
 import { makeRef, metadataColumns } from "./metadata";
 
 export type NewPaperInput = z.output<typeof newPaperSchema>;
 
-export type CreateOutcome = { created: true; paperId: number } | { created: false; existingPaperId: number };
+export type CreateOutcome = { created: true; paperId: number } | { created: false; existingPaperId: number; state: EntryState; createdBy: number };
 
 /** A new draft paper; a DOI already in the corpus gives back the existing paper instead of a duplicate. */
 export async function createPaper(input: NewPaperInput, actor: Actor): Promise<CreateOutcome> {
   const { models, sequelize } = await db();
   const columns = metadataColumns(input);
   if (columns.doi) {
-    const existing = await models.Paper.findOne({ where: { doi: columns.doi }, attributes: ["id"] });
-    if (existing) return { created: false, existingPaperId: existing.id };
+    const existing = await models.Paper.findOne({ where: { doi: columns.doi }, attributes: ["id", "state", "createdBy"] });
+    if (existing) return { created: false, existingPaperId: existing.id, state: existing.state, createdBy: existing.createdBy };
   }
   let csl: Record<string, unknown> | null = null;
   if (input.csl) {

@@ -166,7 +166,7 @@ describe("new papers", () => {
     const coder = await person("contributor");
     const paperId = await newDraft(coder, { doi: "https://doi.org/10.5555/ALREADY.here" });
     const again = await createPaper(newPaperSchema.parse({ doi: "10.5555/already.here", title: "Same paper, typed again" }), coder);
-    expect(again).toEqual({ created: false, existingPaperId: paperId });
+    expect(again).toEqual({ created: false, existingPaperId: paperId, state: "draft", createdBy: coder.id });
   });
 
   it("a paper without DOI gets a curator reference", async () => {

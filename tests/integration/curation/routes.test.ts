@@ -29,6 +29,7 @@ const { PUT: putCoding } = await import("@/app/api/curation/papers/[id]/route");
 const { GET: lookUpDoi } = await import("@/app/api/doi/route");
 const { POST: parseCitationRoute } = await import("@/app/api/curation/citations/route");
 const { sendPaperCorrection } = await import("@/app/(public)/papers/[id]/actions");
+const { createPaperFromForm } = await import("@/app/(workbench)/workbench/actions");
 const { clearCorrectionLimits } = await import("@/lib/curation/corrections");
 const { submitEntry, verifyEntry } = await import("@/lib/curation/workflow");
 const { newDraft, person, save, savedDocument, twoModelDocument } = await import("./support");
@@ -59,7 +60,8 @@ async function verifiedPaper() {
   const coder = await person("contributor", "Aino Coder");
   const curator = await person("curator", "Carys Checker");
   const paperId = await newDraft(coder);
-  await save(paperId, coder, twoModelDocument(1, { dDf: "3" }));
+  // the coding of twoModelDocument, under the paper's own metadata (its DOI kept)
+  await save(paperId, coder, { ...twoModelDocument(1, { dDf: "3" }), metadata: (await savedDocument(paperId)).metadata });
   await submitEntry({ paperId, actor: coder });
   await verifyEntry({ paperId, actor: curator });
   return { paperId, coder, curator };
@@ -187,5 +189,50 @@ describe("send a correction", () => {
     for (let attempt = 0; attempt < 6; attempt += 1) outcomes.push((await sendPaperCorrection(IDLE_STATE, form({ paperId, name: "Y", email: "y@authors.test", message: `Attempt number ${attempt} at a correction.` }))).code ?? "ok");
     // 5 an hour per address (lib/curation/corrections.ts)
     expect(outcomes).toEqual(["ok", "ok", "ok", "ok", "ok", "rate_limited"]);
+  });
+});
+
+describe("new paper from the form", () => {
+  async function redirectOf(work: Promise<unknown>): Promise<string> {
+    try {
+      await work;
+    } catch (error) {
+      const digest = (error as { digest?: string }).digest ?? "";
+      if (digest.startsWith("NEXT_REDIRECT")) return digest.split(";")[2];
+      throw error;
+    }
+    throw new Error("expected a redirect");
+  }
+
+  it("creates a draft and opens its entry form", async () => {
+    const coder = await person("contributor");
+    caller.userId = coder.id;
+    const target = await redirectOf(createPaperFromForm(IDLE_STATE, form({ doi: "10.5555/form.new", title: "A paper from the form", authors: "de la Cruz, María" })));
+    expect(target).toMatch(/^\/workbench\/papers\/\d+$/);
+  });
+
+  it("a verified paper's DOI opens its public page; another contributor's draft is named, not opened", async () => {
+    const { paperId } = await verifiedPaper();
+    const { models } = await db();
+    const verifiedDoi = (await models.Paper.findByPk(paperId, { attributes: ["doi"] }))!.doi!;
+    const someoneElse = await person("contributor");
+    caller.userId = someoneElse.id;
+    expect(await redirectOf(createPaperFromForm(IDLE_STATE, form({ doi: verifiedDoi.toUpperCase(), title: "Typed again" })))).toBe(`/papers/${paperId}`);
+
+    const owner = await person("contributor");
+    await newDraft(owner, { doi: "10.5555/form.someone-elses-draft" });
+    const state = await createPaperFromForm(IDLE_STATE, form({ doi: "10.5555/form.someone-elses-draft", title: "Typed again" }));
+    expect(state).toMatchObject({ ok: false, code: "conflict" });
+    expect(state.fieldErrors.doi?.[0]).toMatch(/another contributor is coding/);
+  });
+
+  it("a malformed DOI is refused next to the DOI field and nothing is created", async () => {
+    caller.userId = (await person("contributor")).id;
+    const { models } = await db();
+    const before = await models.Paper.count();
+    const state = await createPaperFromForm(IDLE_STATE, form({ doi: "10.5555 /with space", title: "A paper" }));
+    expect(state).toMatchObject({ ok: false, code: "validation_failed" });
+    expect(state.fieldErrors.doi?.[0]).toMatch(/not a DOI/);
+    expect(await models.Paper.count()).toBe(before);
   });
 });
