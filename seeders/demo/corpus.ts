@@ -41,10 +41,14 @@ function estimatorFor(random: Random, design: string): Estimator {
 }
 
 function authorsFor(random: Random) {
-  return Array.from({ length: random.integer(1, 4) }, () => {
-    const family = random.pick(FAMILY_NAMES);
-    return { family: family.family, given: random.pick(GIVEN_NAMES), ...(family.particle ? { "non-dropping-particle": family.particle } : {}) };
-  });
+  const families = new Set<(typeof FAMILY_NAMES)[number]>();
+  const count = random.integer(1, 4);
+  while (families.size < count) families.add(random.pick(FAMILY_NAMES));
+  return [...families].map((family) => ({
+    family: family.family,
+    given: random.pick(GIVEN_NAMES),
+    ...(family.particle ? { "non-dropping-particle": family.particle } : {}),
+  }));
 }
 
 interface PaperPlan {
