@@ -6,6 +6,7 @@ import { requireRole } from "@/lib/auth/current-user";
 const SECTIONS = [
   { href: "/admin/people", label: "People" },
   { href: "/admin/outbox", label: "Outbox" },
+  { href: "/admin/recheck", label: "Full recheck" },
 ];
 
 /** Admin pages. The role is checked here for the page and again by every action's guard. */

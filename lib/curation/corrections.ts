@@ -22,9 +22,8 @@ export function clearCorrectionLimits(): void {
   globalForLimits.__fitledgerCorrectionLimits = undefined;
 }
 
-// lib/mail/templates.ts has no kind for this message yet (it belongs to the accounts engineer); the
-// wording lives here until the template moves there.
-const CORRECTION_KIND = "correction-received" as MailKind;
+// The wording of this message stays beside the feature that sends it; its kind is listed with the others.
+const CORRECTION_KIND: MailKind = "correction-received";
 
 export function correctionNotice(input: { paperTitle: string; name: string; email: string; message: string; pageUrl: string }) {
   return compose(`Correction sent for: ${oneLine(input.paperTitle, 120)}`, [

@@ -15,7 +15,8 @@ export type MailKind =
   | "password-reset"
   | "password-changed"
   | "entry-returned"
-  | "search-digest";
+  | "search-digest"
+  | "correction-received";
 
 /** Kinds whose body holds a secret (a reset link): the sender blanks the body once it is delivered. */
 export const SENSITIVE_KINDS: ReadonlySet<MailKind> = new Set(["password-reset"]);
