@@ -19,6 +19,7 @@ export const ACCOUNT_NAV_ITEMS: NavItem[] = [
   { href: "/workbench", label: "Workbench", minRole: "contributor" },
   { href: "/workbench/import", label: "Import a sheet", minRole: "contributor" },
   { href: "/review", label: "Review", minRole: "curator" },
+  { href: "/review/corrections", label: "Corrections", minRole: "curator" },
   { href: "/admin/people", label: "People", minRole: "admin" },
   { href: "/admin/outbox", label: "Outbox", minRole: "admin" },
   { href: "/admin/recheck", label: "Full recheck", minRole: "admin" },

@@ -1,7 +1,7 @@
 import "server-only";
 import { createHash } from "node:crypto";
 import { Op } from "sequelize";
-import { db, createAudited } from "@/lib/db";
+import { db, createAudited, updateAudited } from "@/lib/db";
 import { AppError } from "@/lib/errors";
 import { appLink, queueMail } from "@/lib/mail";
 import { compose, oneLine } from "@/lib/mail/compose";
@@ -49,5 +49,15 @@ export async function sendCorrection(input: { paperId: number; name: string; ema
     const curators = await models.User.findAll({ where: { role: { [Op.in]: ["curator", "admin"] }, status: "active" }, attributes: ["email"], transaction });
     const content = correctionNotice({ paperTitle: paper.title, name: input.name, email: input.email, message: input.message, pageUrl: appLink(`/papers/${paper.id}`) });
     await queueMail(curators.map((curator) => ({ to: curator.email, kind: CORRECTION_KIND, content })), { actorId: null, transaction });
+  });
+}
+
+/** Closes or reopens a correction, audited. A missing correction is a clear 404, not a silent no-op. */
+export async function setCorrectionStatus({ correctionId, status, actor }: { correctionId: number; status: "open" | "closed"; actor: { id: number } }): Promise<void> {
+  const { models, sequelize } = await db();
+  await sequelize.transaction(async (transaction) => {
+    const correction = await models.Correction.findByPk(correctionId, { transaction });
+    if (!correction) throw new AppError("not_found", "That correction no longer exists.");
+    await updateAudited(correction, { status }, { actorId: actor.id, transaction, action: status === "closed" ? "close" : "reopen" });
   });
 }

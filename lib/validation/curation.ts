@@ -231,3 +231,9 @@ export const correctionSchema = z.object({
 });
 
 export const fullRecheckSchema = z.object({ confirm: z.literal("recheck-everything", { error: "Confirm the full recheck." }) });
+
+/** A curator marks a correction as dealt with, or opens it again. */
+export const correctionStatusSchema = z.object({
+  correctionId: z.coerce.number().int().positive(),
+  status: z.enum(["open", "closed"]),
+});

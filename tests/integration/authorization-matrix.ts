@@ -110,6 +110,7 @@ export const ACTION_MATRIX: ActionRow[] = [
   { file: "(workbench)/review/actions.ts", name: "verifyPaperEntry", access: "curator" },
   { file: "(workbench)/review/actions.ts", name: "returnPaperEntry", access: "curator" },
   { file: "(workbench)/review/actions.ts", name: "recordFindingVerdict", access: "curator" },
+  { file: "(workbench)/review/corrections/actions.ts", name: "changeCorrectionStatus", access: "curator" },
   { file: "(public)/papers/[id]/actions.ts", name: "sendPaperCorrection", access: "public" },
   { file: "(public)/explore/actions.ts", name: "saveSearch", access: "reader" },
   { file: "(public)/explore/actions.ts", name: "removeSavedSearch", access: "reader" },

@@ -3,6 +3,7 @@ import Link from "next/link";
 import { Notice } from "@/components/ui/notice";
 import { Pager } from "@/components/ui/pager";
 import { requireRole } from "@/lib/auth/current-user";
+import { countOpenCorrections } from "@/lib/db/queries/corrections";
 import { listReviewQueue, type QueueFilters } from "@/lib/db/queries/review";
 
 export const metadata: Metadata = { title: "Review queue" };
@@ -27,7 +28,7 @@ export default async function ReviewQueuePage({ searchParams }: { searchParams: 
   };
   const requested = Number(query.page ?? "1");
   const page = Number.isInteger(requested) && requested > 0 ? requested : 1;
-  const queue = await listReviewQueue({ filters, viewerId: user.id, page, pageSize: PAGE_SIZE });
+  const [queue, openCorrections] = await Promise.all([listReviewQueue({ filters, viewerId: user.id, page, pageSize: PAGE_SIZE }), countOpenCorrections()]);
   const hrefFor = (next: number) => `/review?${new URLSearchParams({ ...(filters.q ? { q: filters.q } : {}), ...(filters.field ? { field: filters.field } : {}), ...(filters.coder === "others" ? { coder: "others" } : {}), page: String(next) })}`;
 
   return (
@@ -35,6 +36,9 @@ export default async function ReviewQueuePage({ searchParams }: { searchParams: 
       <header>
         <h1 className="text-xl font-semibold tracking-tight">Review queue</h1>
         <p className="text-ink-soft">Submitted entries, the longest-waiting first. Open one to see what changed, record a verdict on each finding, and verify or return it.</p>
+        <p className="text-xs">
+          <Link href="/review/corrections">Corrections sent from paper pages: {openCorrections} open</Link>
+        </p>
       </header>
       <form method="get" className="flex flex-wrap items-end gap-3" role="search" aria-label="Filter the queue">
         <div>

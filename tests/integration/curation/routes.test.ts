@@ -31,6 +31,8 @@ const { POST: parseCitationRoute } = await import("@/app/api/curation/citations/
 const { sendPaperCorrection } = await import("@/app/(public)/papers/[id]/actions");
 const { createPaperFromForm } = await import("@/app/(workbench)/workbench/actions");
 const { clearCorrectionLimits } = await import("@/lib/curation/corrections");
+const { changeCorrectionStatus } = await import("@/app/(workbench)/review/corrections/actions");
+const { listCorrections } = await import("@/lib/db/queries/corrections");
 const { submitEntry, verifyEntry } = await import("@/lib/curation/workflow");
 const { newDraft, person, save, savedDocument, twoModelDocument } = await import("./support");
 
@@ -189,6 +191,31 @@ describe("send a correction", () => {
     for (let attempt = 0; attempt < 6; attempt += 1) outcomes.push((await sendPaperCorrection(IDLE_STATE, form({ paperId, name: "Y", email: "y@authors.test", message: `Attempt number ${attempt} at a correction.` }))).code ?? "ok");
     // 5 an hour per address (lib/curation/corrections.ts)
     expect(outcomes).toEqual(["ok", "ok", "ok", "ok", "ok", "rate_limited"]);
+  });
+});
+
+describe("curators deal with corrections", () => {
+  it("lists an open correction, closes it with an audit event, and lists it under dealt with", async () => {
+    const { paperId, curator } = await verifiedPaper();
+    caller.address = "198.51.100.9";
+    await sendPaperCorrection(IDLE_STATE, form({ paperId, name: "Bo Reader", email: "bo@readers.test", message: "The N of Table 1 is 412, not 421." }));
+    const open = await listCorrections({ status: "open", page: 1, pageSize: 100 });
+    const mine = open.items.find((item) => item.paperId === paperId && item.name === "Bo Reader");
+    expect(mine).toMatchObject({ status: "open", message: "The N of Table 1 is 412, not 421." });
+
+    caller.userId = curator.id;
+    expect(await changeCorrectionStatus(IDLE_STATE, form({ correctionId: mine!.id, status: "closed" }))).toMatchObject({ ok: true, message: "Marked as dealt with." });
+    const closed = await listCorrections({ status: "closed", page: 1, pageSize: 100 });
+    expect(closed.items.map((item) => item.id)).toContain(mine!.id);
+    const { models } = await db();
+    const event = await models.AuditEvent.findOne({ where: { entity: "Correction", entityId: String(mine!.id), action: "close" } });
+    expect(event?.actorId).toBe(curator.id);
+    expect(event?.after).toEqual({ status: "closed" });
+  });
+
+  it("answers a clear not-found for a correction that does not exist, changing nothing", async () => {
+    caller.userId = (await person("curator")).id;
+    expect(await changeCorrectionStatus(IDLE_STATE, form({ correctionId: 999_999, status: "closed" }))).toMatchObject({ ok: false, code: "not_found" });
   });
 });
 
