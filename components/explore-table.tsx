@@ -151,7 +151,7 @@ export function ExploreTable({
   });
 
   return (
-    <div className="overflow-x-auto">
+    <div className="relative overflow-x-auto">
       <table className={`w-full border-collapse text-left ${busy ? "opacity-60" : ""}`} aria-busy={busy || undefined}>
         <thead>
           {table.getHeaderGroups().map((group) => (

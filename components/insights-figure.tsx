@@ -28,7 +28,7 @@ export function InsightsFigure({ table, context, chart, caption }: { table: Figu
       {table.rows.length > 0 ? (
         <details>
           <summary className="cursor-pointer text-xs text-ledger">The figures as a table</summary>
-          <div className="mt-2 overflow-x-auto">
+          <div className="relative mt-2 overflow-x-auto">
             <table className="w-full border-collapse text-left text-xs">
               <caption className="sr-only">{table.title}</caption>
               <thead>

@@ -91,7 +91,7 @@ export function ModelGrid({ rows, samples, figures = MODEL_FIGURES, errors, disa
 
   return (
     <div className="space-y-2">
-      <div className="overflow-x-auto rounded border border-rule">
+      <div className="relative overflow-x-auto rounded border border-rule">
         <table ref={table} className="w-full border-collapse text-left">
           <caption className="sr-only">Reported models, one a row; figures exactly as printed</caption>
           <thead className="bg-paper-sunk text-xxs text-ink-soft">

@@ -38,7 +38,7 @@ export function SortableTable<Row>({ rows, columns, caption, rowId, rowAnchor, h
     });
   }, [rows, columns, sort]);
   return (
-    <div className="overflow-x-auto">
+    <div className="relative overflow-x-auto">
       <table className="w-full border-collapse text-left text-sm">
         <caption className="sr-only">{caption}</caption>
         <thead className="border-b border-rule-strong text-xs text-ink-faint">
