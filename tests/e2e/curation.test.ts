@@ -109,6 +109,10 @@ describe.skipIf(!e2e.enabled)("curation in the browser", () => {
   it("a curator returns it with a comment, and the contributor is e-mailed", async () => {
     const { page } = await openPage(browser, e2e.baseUrl);
     await signIn(page, CURATOR, "/review");
+    // the queue is oldest first and paged; the curator narrows it to this paper, as a busy curator would
+    await page.getByLabel("Title, DOI or journal").fill(registryPaper.doi.toLowerCase());
+    await page.getByRole("button", { name: "Filter" }).click();
+    await page.waitForURL(/\/review\?q=/);
     await page.getByRole("link", { name: registryPaper.title }).click();
     await page.waitForURL(`**/review/${paperId}`);
     const finding = page.locator('[data-code="df-difference-mismatch"]');
