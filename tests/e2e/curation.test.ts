@@ -2,7 +2,8 @@ import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
 import { CAUTION_TEXT } from "@/components/caution-notice";
 import { createDatabase } from "@/lib/db/connection";
-import { DEMO_PASSWORD, demoCorpus } from "@/seeders/demo/corpus";
+import { demoCorpus } from "@/seeders/demo/corpus";
+import { signInAs } from "./support/session";
 import { launchBrowser, openPage } from "./support/browser";
 import { waitForMessage } from "./support/mail";
 import "./support/context";
@@ -20,13 +21,6 @@ const CONTRIBUTOR = "contributor@fitledger.test";
 const CURATOR = "curator@fitledger.test";
 const SECOND_CURATOR = "curator2@fitledger.test";
 
-async function signIn(page: Page, email: string, next: string) {
-  await page.goto(`/signin?next=${encodeURIComponent(next)}`);
-  await page.getByLabel("E-mail address").fill(email);
-  await page.getByLabel("Password", { exact: true }).fill(DEMO_PASSWORD);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL((url) => url.pathname === next);
-}
 
 /** A paste of tab-separated text into an input, as a copy from a PDF table or a spreadsheet arrives. */
 async function pasteInto(page: Page, selector: string, text: string) {
@@ -52,7 +46,7 @@ describe.skipIf(!e2e.enabled)("curation in the browser", () => {
 
   it("a contributor adds a paper by DOI, codes it, sees the Δdf slip live and submits", async () => {
     const { page, problems } = await openPage(browser, e2e.baseUrl);
-    await signIn(page, CONTRIBUTOR, "/workbench/new");
+    await signInAs(page, CONTRIBUTOR, "/workbench/new");
     // a malformed DOI is refused next to the field; an unknown one says so and leaves the form to type into
     await page.locator("#doi-query").fill("10.12/too-short");
     await page.getByRole("button", { name: "Look up" }).click();
@@ -108,7 +102,7 @@ describe.skipIf(!e2e.enabled)("curation in the browser", () => {
 
   it("a curator returns it with a comment, and the contributor is e-mailed", async () => {
     const { page } = await openPage(browser, e2e.baseUrl);
-    await signIn(page, CURATOR, "/review");
+    await signInAs(page, CURATOR, "/review");
     // the queue is oldest first and paged; the curator narrows it to this paper, as a busy curator would
     await page.getByLabel("Title, DOI or journal").fill(registryPaper.doi.toLowerCase());
     await page.getByRole("button", { name: "Filter" }).click();
@@ -134,7 +128,7 @@ describe.skipIf(!e2e.enabled)("curation in the browser", () => {
 
   it("the contributor fixes the Δdf and submits again", async () => {
     const { page } = await openPage(browser, e2e.baseUrl);
-    await signIn(page, CONTRIBUTOR, `/workbench/papers/${paperId}`);
+    await signInAs(page, CONTRIBUTOR, `/workbench/papers/${paperId}`);
     expect(await page.getByTestId("curator-comment").textContent()).toContain("not 3");
     await page.locator('[name="comparisons.0.dDf"]').fill("4");
     const live = page.getByTestId("live-recheck");
@@ -148,7 +142,7 @@ describe.skipIf(!e2e.enabled)("curation in the browser", () => {
 
   it("a second curator verifies it, and the public page shows it with the caution notice and no error finding", async () => {
     const { page } = await openPage(browser, e2e.baseUrl);
-    await signIn(page, SECOND_CURATOR, `/review/${paperId}`);
+    await signInAs(page, SECOND_CURATOR, `/review/${paperId}`);
     await page.getByRole("button", { name: "Verify this entry" }).click();
     await page.getByTestId("review-outcome").getByText("Verified by Chidi Okonjo").waitFor();
 
@@ -209,7 +203,7 @@ describe.skipIf(!e2e.enabled)("curation in the browser", () => {
 
   it("two edits of the same paper: the second save gets a conflict notice and keeps what was typed", async () => {
     const { page: first } = await openPage(browser, e2e.baseUrl);
-    await signIn(first, CONTRIBUTOR, "/workbench/new");
+    await signInAs(first, CONTRIBUTOR, "/workbench/new");
     await first.getByRole("tab", { name: "By hand" }).click();
     await first.locator("#paper-title").fill("A conference paper typed by hand");
     await first.locator("#paper-authors").fill("Rautio, Aino\n{Fitledger Consortium}");
@@ -219,7 +213,7 @@ describe.skipIf(!e2e.enabled)("curation in the browser", () => {
     const address = new URL(first.url()).pathname;
 
     const { page: second } = await openPage(browser, e2e.baseUrl);
-    await signIn(second, CONTRIBUTOR, address);
+    await signInAs(second, CONTRIBUTOR, address);
 
     await first.getByRole("button", { name: "Add a model" }).click();
     await first.locator('[name="models.0.label"]').fill("One factor");
@@ -244,7 +238,7 @@ describe.skipIf(!e2e.enabled)("curation in the browser", () => {
 
   it("a RIS file uploaded on the new-paper page fills the metadata, particles and diacritics intact", async () => {
     const { page, problems } = await openPage(browser, e2e.baseUrl);
-    await signIn(page, CONTRIBUTOR, "/workbench/new");
+    await signInAs(page, CONTRIBUTOR, "/workbench/new");
     await page.getByRole("tab", { name: "BibTeX or RIS" }).click();
     const ris = ["TY  - JOUR", "AU  - Øvergaard, Siri", "AU  - von Trapp, Maria", "TI  - Scaled difference tests in practice", "JO  - Methods Quarterly", "PY  - 2021", "SP  - 11", "EP  - 29", "ER  - ", ""].join("\n");
     await page.locator('input[type="file"]').setInputFiles({ name: "record.ris", mimeType: "text/plain", buffer: Buffer.from(ris, "utf8") });
@@ -263,7 +257,7 @@ describe.skipIf(!e2e.enabled)("curation in the browser", () => {
 
   it("an admin rechecks everything and watches the progress bar reach the end", async () => {
     const { page, problems } = await openPage(browser, e2e.baseUrl);
-    await signIn(page, "admin@fitledger.test", "/admin/recheck");
+    await signInAs(page, "admin@fitledger.test", "/admin/recheck");
     await page.getByRole("button", { name: "Recheck everything" }).click();
     await page.getByText("Last full recheck").waitFor({ timeout: 90_000 });
     const line = await page.locator('[aria-live="polite"]', { hasText: "papers" }).textContent();

@@ -1,7 +1,7 @@
 import fs from "node:fs";
 import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
-import { DEMO_PASSWORD } from "@/seeders/demo/corpus";
+import { signInAs } from "./support/session";
 import { launchBrowser, openPage } from "./support/browser";
 import "./support/context";
 
@@ -21,13 +21,6 @@ const SHEET = [
   `${PAPER},One vs two factors,lrt,yes,61.20,1,< .001,One factor,ML,140.50,20,< .001,Two factors,ML,79.30,19,< .001`,
 ].join("\r\n");
 
-async function signIn(page: Page, email: string, next: string) {
-  await page.goto(`/signin?next=${encodeURIComponent(next)}`);
-  await page.getByLabel("E-mail address").fill(email);
-  await page.getByLabel("Password", { exact: true }).fill(DEMO_PASSWORD);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL((url) => url.pathname === next);
-}
 
 async function uploadAndPreview(page: Page, name: string, text: string) {
   await page.goto("/workbench/import");
@@ -50,7 +43,7 @@ describe.skipIf(!e2e.enabled)("importing a sheet in the browser", () => {
 
   it("dry run shows the two bad rows, the rest commits, and the fixed rejected rows import on their own", async () => {
     const { page, problems } = await openPage(browser, e2e.baseUrl);
-    await signIn(page, CONTRIBUTOR, "/workbench/import");
+    await signInAs(page, CONTRIBUTOR, "/workbench/import");
 
     await uploadAndPreview(page, "coding-sheet.csv", SHEET);
     expect([await count(page, "new"), await count(page, "rejected")]).toEqual(["2", "2"]);
