@@ -6,7 +6,7 @@
 // 2. On a fresh migrated SQLite file: stages the file as the upload route does (streamed in 64 KB
 //    pieces), runs the dry run, then the commit — the same functions the app calls — timing each phase.
 // 3. Imports the same sheet a second time (dry run + commit), which must create nothing.
-// 4. Peak memory: process.resourceUsage().maxRSS, plus the largest RSS sampled every 50 ms.
+// 4. Peak memory: process.resourceUsage().maxRSS, plus the largest RSS sampled every 50 ms (overall and per phase).
 // 5. Beside each phase's wall time, the CPU time this process used: on a shared machine the wall clock
 //    also measures the other tenants.
 import { createReadStream, createWriteStream, mkdtempSync, rmSync, statSync } from "node:fs";
@@ -47,20 +47,25 @@ function toRecord(input: ComparisonInput, index: number): SheetRecord {
 }
 
 let peakRss = 0;
+/** the largest RSS sampled during the phase being timed */
+let phasePeakRss = 0;
 const sampler = setInterval(() => {
-  peakRss = Math.max(peakRss, process.memoryUsage().rss);
+  const rss = process.memoryUsage().rss;
+  peakRss = Math.max(peakRss, rss);
+  phasePeakRss = Math.max(phasePeakRss, rss);
 }, 50);
 
 async function timed<T>(name: string, work: () => Promise<T>, rows: number, lines: string[]): Promise<T> {
   const started = performance.now();
   const cpu = process.cpuUsage();
+  phasePeakRss = process.memoryUsage().rss;
   const result = await work();
   const seconds = (performance.now() - started) / 1000;
   const used = process.cpuUsage(cpu);
   // CPU time of this process (SQLite's worker threads included) beside the wall clock: the machine is shared
   const cpuSeconds = (used.user + used.system) / 1e6;
   lines.push(
-    `${name.padEnd(34)} ${seconds.toFixed(2).padStart(7)} s wall  ${cpuSeconds.toFixed(2).padStart(7)} s CPU  ${Math.round(rows / seconds).toLocaleString("en").padStart(9)} rows/s  rss ${(process.memoryUsage().rss / 2 ** 20).toFixed(0)} MB`,
+    `${name.padEnd(34)} ${seconds.toFixed(2).padStart(7)} s wall  ${cpuSeconds.toFixed(2).padStart(7)} s CPU  ${Math.round(rows / seconds).toLocaleString("en").padStart(9)} rows/s  rss ${(process.memoryUsage().rss / 2 ** 20).toFixed(0)} MB (phase peak ${(Math.max(phasePeakRss, process.memoryUsage().rss) / 2 ** 20).toFixed(0)} MB)`,
   );
   return result;
 }
