@@ -198,7 +198,7 @@ export class ImportPlanner {
     });
     const comparisonKey = `${sampleKey}\u0000${entry.comparison.label}`;
     const comparisonParts = valuesComparisonSignature(entry.comparison, entry.restricted.label, entry.free.label);
-    const comparisonSig = encodeSignature(comparisonParts);
+    let comparisonSig = encodeSignature(comparisonParts);
     const earlierComparison = this.comparisons.get(comparisonKey);
     if (earlierComparison) {
       const identical = comparisonSig === earlierComparison.signature;
@@ -217,10 +217,16 @@ export class ImportPlanner {
       if (this.models.has(`${sampleKey}\u0000${model.label}`)) return { change: "same" };
       const stored = storedSample ? this.existing.models.get(childKey(storedSample.id, model.label)) : undefined;
       if (!stored) return { change: "new" };
-      return { change: stored.signature === modelCodes[index] ? "same" : "changed", storedId: stored.id, before: decodeSignature(stored.signature) };
+      // as stored: keep the stored string (equal content) so this row's copy can go; decode only a change
+      if (stored.signature === modelCodes[index]) {
+        modelCodes[index] = stored.signature;
+        return { change: "same", storedId: stored.id };
+      }
+      return { change: "changed", storedId: stored.id, before: decodeSignature(stored.signature) };
     });
     const storedComparison = storedSample ? this.existing.comparisons.get(childKey(storedSample.id, entry.comparison.label)) : undefined;
     const comparisonChange: Change = !storedComparison ? "new" : comparisonSig === storedComparison.signature ? "same" : "changed";
+    if (comparisonChange === "same") comparisonSig = storedComparison!.signature;
     const anyChange = metadataChanged || sampleChange !== "same" || modelChanges.some((m) => m.change !== "same") || comparisonChange !== "same";
     const outcome: RowOutcome = comparisonChange === "new" ? "new" : anyChange ? "updated" : "unchanged";
 
