@@ -20,6 +20,14 @@ function typo(text: string, factor: number): string {
   return text.startsWith(".") || text.startsWith("-.") ? printFit(value, decimals) : fixed(value, decimals);
 }
 
+/** Figures a slip leaves unprinted, because the paper would not have printed them consistently either. */
+function unprint(model: DemoModel, keys: readonly (keyof DemoModel["figures"])[]): void {
+  for (const key of keys) delete model.figures[key];
+}
+
+/** The figures that follow from a model's χ²: dropped when a slip changes that χ². */
+const FIT_FROM_CHISQ = ["p", "rmsea", "rmseaLo", "rmseaHi", "cfi", "tli"] as const;
+
 export const SLIPS: Record<string, Slip> = {
   "df-difference-mismatch": (built) => {
     const item = withTest(built);
@@ -93,12 +101,7 @@ export const SLIPS: Record<string, Slip> = {
     const shown = model(built, item.free);
     shown.figures.scaling = fixed(b.scaling, 3);
     shown.figures.chisqScaled = fixed(b.chisq / b.scaling, 2);
-    delete shown.figures.p;
-    delete shown.figures.rmsea;
-    delete shown.figures.rmseaLo;
-    delete shown.figures.rmseaHi;
-    delete shown.figures.cfi;
-    delete shown.figures.tli;
+    unprint(shown, FIT_FROM_CHISQ);
     item.figures.dChisq = fixed(Math.abs(scaledDifference(a, b, false).statistic), 2);
     delete item.figures.dP;
     return true;
@@ -131,15 +134,7 @@ export const SLIPS: Record<string, Slip> = {
     // the restricted model printed with the smaller chi-square: the two values were swapped in the table
     [a.figures.chisq, b.figures.chisq] = [b.figures.chisq, a.figures.chisq];
     for (const shown of [a, b]) {
-      delete shown.figures.p;
-      delete shown.figures.rmsea;
-      delete shown.figures.rmseaLo;
-      delete shown.figures.rmseaHi;
-      delete shown.figures.cfi;
-      delete shown.figures.tli;
-      delete shown.figures.aic;
-      delete shown.figures.bic;
-      delete shown.figures.loglik;
+      unprint(shown, [...FIT_FROM_CHISQ, "aic", "bic", "loglik"]);
     }
     const statistic = Number(a.figures.chisq) - Number(b.figures.chisq);
     item.figures = { dChisq: fixed(statistic, 2), dDf: item.figures.dDf };
@@ -157,7 +152,7 @@ export const SLIPS: Record<string, Slip> = {
     if (!item) return false;
     const free = model(built, item.free);
     free.figures.df = "-1";
-    for (const key of ["p", "rmsea", "rmseaLo", "rmseaHi", "cfi", "tli", "npar", "nObserved"] as const) delete free.figures[key];
+    unprint(free, [...FIT_FROM_CHISQ, "npar", "nObserved"]);
     delete item.figures.dDf;
     return true;
   },
@@ -188,8 +183,7 @@ export const SLIPS: Record<string, Slip> = {
     const shown = built.sample.models.find((item) => item.figures.rmsea && Number(item.figures.rmsea) > 0.02);
     if (!shown) return false;
     shown.figures.rmsea = typo(shown.figures.rmsea!, 1.5);
-    delete shown.figures.rmseaLo;
-    delete shown.figures.rmseaHi;
+    unprint(shown, ["rmseaLo", "rmseaHi"]);
     return true;
   },
   "rmsea-interval-mismatch": (built) => {
@@ -242,7 +236,7 @@ export const SLIPS: Record<string, Slip> = {
       const shown = model(built, label);
       shown.figures.rmsea = printFit(0.112 + (truth.df % 7) / 1000, 3);
       shown.figures.cfi = printFit(0.81 + (truth.df % 5) / 100, 3);
-      for (const key of ["rmseaLo", "rmseaHi", "tli", "baselineChisq", "baselineDf", "p", "chisq", "aic", "bic", "loglik"] as const) delete shown.figures[key];
+      unprint(shown, ["rmseaLo", "rmseaHi", "tli", "baselineChisq", "baselineDf", "p", "chisq", "aic", "bic", "loglik"]);
     }
     delete item.figures.dP;
     return true;
