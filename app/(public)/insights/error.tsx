@@ -1,14 +1,7 @@
 "use client";
 
-import { Notice } from "@/components/ui/notice";
+import { SegmentError } from "@/components/segment-error";
 
 export default function InsightsError({ reset }: { error: Error; reset: () => void }) {
-  return (
-    <Notice tone="error" title="The statistics could not be computed.">
-      Something went wrong on our side; it has been logged.{" "}
-      <button type="button" className="underline" onClick={reset}>
-        Try again
-      </button>
-    </Notice>
-  );
+  return <SegmentError title="The statistics could not be computed." reset={reset} />;
 }
