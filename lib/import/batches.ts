@@ -104,10 +104,8 @@ async function loadBatch(batchId: number, uploaderId?: number): Promise<ImportBa
 
 /** Judges every row without writing an entry; keeps the counts, the row errors and the preview. */
 export async function runDryRun(batchId: number): Promise<SheetSummary | null> {
-  await db();
-  const batch = await loadBatch(batchId);
+  // registered before the first await: a page read while the run starts sees it running, not interrupted
   const progress = startProgress(batchId);
-  await ImportRow.destroy({ where: { batchId } });
   let buffer: Record<string, unknown>[] = [];
   let acceptedShown = 0;
   const flush = async () => {
@@ -116,6 +114,9 @@ export async function runDryRun(batchId: number): Promise<SheetSummary | null> {
     buffer = [];
   };
   try {
+    await db();
+    const batch = await loadBatch(batchId);
+    await ImportRow.destroy({ where: { batchId } });
     const settings = await readRecheckSettings();
     const summary = await processSheet({
       open: () => stagedSource(batchId),
@@ -146,7 +147,7 @@ export async function runDryRun(batchId: number): Promise<SheetSummary | null> {
     return summary;
   } catch (error) {
     if (!isSheetError(error) && !(error instanceof AppError)) console.error("[import] dry run failed", error);
-    await batch.update({ status: "failed", failure: batchFailure(error), progress: { read: progress.read, validated: progress.validated } });
+    await ImportBatch.update({ status: "failed", failure: batchFailure(error), progress: { read: progress.read, validated: progress.validated } }, { where: { id: batchId } });
     return null;
   } finally {
     endProgress(batchId);

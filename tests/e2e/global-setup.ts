@@ -94,6 +94,10 @@ export default async function setup(project: TestProject) {
   project.provide("e2e", { enabled: true, baseUrl, mailUrl: sink.webUrl, doiUrl: registry.url, databaseUrl });
 
   return async () => {
+    // what the server logged as going wrong, for a failure seen only in CI (the folder goes below)
+    const logged = fs.readFileSync(path.join(folder, "app.log"), "utf8").split("\n");
+    const problems = logged.filter((line) => /error|failed|unhandled|\[import\]/i.test(line));
+    if (problems.length > 0) console.error(`The app server logged ${problems.length} problem lines during the e2e run:\n${problems.slice(-40).join("\n")}`);
     server.kill("SIGTERM");
     await new Promise((resolve) => (server.exitCode !== null ? resolve(null) : server.once("exit", resolve)));
     await Promise.all([registry.close(), sink.close()]);

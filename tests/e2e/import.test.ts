@@ -27,7 +27,18 @@ async function uploadAndPreview(page: Page, name: string, text: string) {
   await page.locator("#sheet").setInputFiles({ name, mimeType: "text/csv", buffer: Buffer.from(text, "utf8") });
   await page.getByRole("button", { name: "Upload for a dry run" }).click();
   await page.waitForURL(/\/workbench\/import\/\d+$/);
-  await page.locator('[data-batch-status="previewed"]').waitFor({ timeout: 30_000 });
+  await waitForStatus(page, "previewed");
+}
+
+/** Waits until the batch settles; a different outcome fails with what the page said, not a bare timeout. */
+async function waitForStatus(page: Page, status: "previewed" | "committed") {
+  const settled = page.locator(`[data-batch-status="${status}"], [data-batch-status="failed"]`);
+  const seen = await settled.waitFor({ timeout: 30_000 }).then(
+    () => true,
+    () => false,
+  );
+  const said = await page.locator("main").innerText();
+  expect(seen && (await page.locator(`[data-batch-status="${status}"]`).count()) === 1, `the page said:\n${said}`).toBe(true);
 }
 
 const count = (page: Page, label: string) => page.locator(`[data-count="${label}"] dd`).innerText();
@@ -59,7 +70,7 @@ describe.skipIf(!e2e.enabled)("importing a sheet in the browser", () => {
     expect(rejectedCsv.split("\r\n")[0].endsWith(",error")).toBe(true);
 
     await page.getByRole("button", { name: "Commit 2 accepted rows" }).click();
-    await page.locator('[data-batch-status="committed"]').waitFor({ timeout: 30_000 });
+    await waitForStatus(page, "committed");
     await expect(page.getByRole("status").filter({ hasText: "rows are now drafts of yours" }).count()).resolves.toBe(1);
 
     // fix both rows in the downloaded file (the error column stays) and upload it as it is
@@ -68,7 +79,7 @@ describe.skipIf(!e2e.enabled)("importing a sheet in the browser", () => {
     await uploadAndPreview(page, "coding-sheet-rejected-rows.csv", fixed);
     expect([await count(page, "new"), await count(page, "unchanged"), await count(page, "rejected")]).toEqual(["2", "0", "0"]);
     await page.getByRole("button", { name: "Commit 2 accepted rows" }).click();
-    await page.locator('[data-batch-status="committed"]').waitFor({ timeout: 30_000 });
+    await waitForStatus(page, "committed");
 
     await page.goto("/workbench/import/history");
     await expect(page.getByRole("table").innerText()).resolves.toMatch(/coding-sheet-rejected-rows\.csv\s+\S+ \S+\s+committed\s+2\s+2\s+0/);

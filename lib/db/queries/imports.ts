@@ -27,6 +27,12 @@ export interface BatchView {
 }
 
 const RUNNING: ImportStatus[] = ["validating", "committing"];
+/**
+ * A running status with no live progress is only taken for an interrupted run once it is this old: the
+ * status is written a moment before the run registers its progress (and an upload being staged has
+ * none yet), and a page read in that moment must keep polling rather than give up on the import.
+ */
+const STARTING_GRACE_MS = 15_000;
 
 export async function readBatch({ batchId, uploaderId }: { batchId: number; uploaderId: number }): Promise<BatchView | null> {
   const { models } = await db();
@@ -42,7 +48,7 @@ export async function readBatch({ batchId, uploaderId }: { batchId: number; uplo
     id: batch.id,
     fileName: batch.fileName,
     status: batch.status,
-    interrupted: RUNNING.includes(batch.status) && !live,
+    interrupted: RUNNING.includes(batch.status) && !live && Date.now() - batch.updatedAt.getTime() > STARTING_GRACE_MS,
     totalRows: batch.totalRows,
     acceptedRows: batch.acceptedRows,
     rejectedRows: batch.rejectedRows,

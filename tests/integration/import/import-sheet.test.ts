@@ -1,8 +1,10 @@
 import fs from "node:fs";
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, beforeAll, describe, expect, it, onTestFinished, vi } from "vitest";
 import { createTestDatabase, type TestDatabase } from "../../support/test-db";
 import { AuditEvent, Comparison, FitModel, Flag, Paper, Sample } from "@/models";
-import { runCommit } from "@/lib/import/batches";
+import { readBatch } from "@/lib/db/queries/imports";
+import { createBatch, runCommit, runDryRun, stageUpload } from "@/lib/import/batches";
+import { liveProgress } from "@/lib/import/progress";
 import { createAccount, dryRun, importSheet } from "./support";
 
 // A realistic sheet (imports/: several invented papers, LRT and information criteria, WLSMV, a paper
@@ -125,5 +127,30 @@ describe("committing", () => {
     // someone else's batch is not found at all
     await expect(runCommit(committed.id, other)).rejects.toThrow(/no such import/);
     expect({ ...(await counts()), audit: 0 }).toEqual({ ...before, audit: 0 });
+  });
+});
+
+describe("a page read while an import starts", () => {
+  it("sees the dry run running from the moment it is called, never an interrupted import", async () => {
+    const batchId = await createBatch({ uploaderId: coder, fileName: "starting.csv" });
+    await stageUpload(batchId, (async function* () {
+      yield new TextEncoder().encode(several);
+    })());
+    const run = runDryRun(batchId); // the upload route starts it like this, without waiting
+    expect(liveProgress(batchId)).toBeDefined(); // before its first await
+    const view = await readBatch({ batchId, uploaderId: coder });
+    expect(view).toMatchObject({ status: "validating", interrupted: false });
+    expect(view!.live).not.toBeNull();
+    await run;
+    expect(await readBatch({ batchId, uploaderId: coder })).toMatchObject({ status: "previewed", interrupted: false, live: null });
+  });
+
+  it("takes a running status without live progress for interrupted only once it is old (a restart)", async () => {
+    const batchId = await createBatch({ uploaderId: coder, fileName: "left-behind.csv" });
+    expect(await readBatch({ batchId, uploaderId: coder })).toMatchObject({ status: "validating", interrupted: false });
+    // a minute later, with no run of this process behind it (the server was restarted)
+    vi.useFakeTimers({ toFake: ["Date"], now: Date.now() + 60_000 });
+    onTestFinished(() => void vi.useRealTimers());
+    expect(await readBatch({ batchId, uploaderId: coder })).toMatchObject({ status: "validating", interrupted: true });
   });
 });
