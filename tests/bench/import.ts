@@ -13,6 +13,7 @@ import { createReadStream, createWriteStream, mkdtempSync, rmSync, statSync } fr
 import { once } from "node:events";
 import { availableParallelism, loadavg, tmpdir } from "node:os";
 import { join } from "node:path";
+import { getHeapStatistics } from "node:v8";
 import { sheetHeaderLine, sheetRecordLine, type SheetRecord } from "@/lib/csv";
 import { createDatabase, setDatabase } from "@/lib/db/connection";
 import { migrateUp } from "@/lib/db/migrate";
@@ -112,6 +113,8 @@ async function main() {
   }
   const maxRss = process.resourceUsage().maxRSS / 1024;
   console.log(`bench:import — ${ROWS.toLocaleString("en")} rows, ${availableParallelism()} cores, load average ${loadavg().map((l) => l.toFixed(2)).join(" ")}`);
+  // package.json runs this bench with the V8 heap limit `npm start` gives the app server
+  console.log(`V8 heap limit: ${(getHeapStatistics().heap_size_limit / 2 ** 20).toFixed(0)} MB (as npm start sets it for the server)`);
   for (const line of lines) console.log(line);
   console.log(`peak memory: ${maxRss.toFixed(0)} MB (maxRSS), ${(peakRss / 2 ** 20).toFixed(0)} MB (largest sampled RSS); target ≤ 30 s and ≤ 1024 MB`);
 }
