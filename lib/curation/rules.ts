@@ -15,10 +15,14 @@ export interface EntryFacts {
 
 export type EntryStep = "submit" | "return" | "verify";
 
-/** The state machine: draft → submitted → returned → submitted → … → verified. */
+/**
+ * The state machine: draft → submitted → returned → submitted → … → verified. A verified entry can be
+ * returned too, when a correction (from its authors, a reader or a curator) shows the coding needs to
+ * change: it leaves the public corpus until a curator verifies it again.
+ */
 export const STEPS: Record<EntryStep, { from: readonly EntryState[]; to: EntryState }> = {
   submit: { from: ["draft", "returned"], to: "submitted" },
-  return: { from: ["submitted"], to: "returned" },
+  return: { from: ["submitted", "verified"], to: "returned" },
   verify: { from: ["submitted"], to: "verified" },
 };
 

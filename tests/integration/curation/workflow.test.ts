@@ -110,7 +110,7 @@ describe("who may take each step", () => {
     expect(await refusal(verifyEntry({ paperId, actor: admin }))).toMatchObject({ code: "forbidden" });
   });
 
-  it("steps out of order are refused as conflicts: a draft cannot be verified, a verified entry cannot be returned", async () => {
+  it("steps out of order are refused as conflicts: a draft cannot be verified, a verified entry not verified or submitted again", async () => {
     const coder = await person("contributor");
     const curator = await person("curator");
     const paperId = await newDraft(coder);
@@ -119,7 +119,8 @@ describe("who may take each step", () => {
     await submitEntry({ paperId, actor: coder });
     expect(await refusal(submitEntry({ paperId, actor: coder }))).toMatchObject({ code: "conflict" });
     await verifyEntry({ paperId, actor: curator });
-    expect(await refusal(returnEntry({ paperId, comment: "second thoughts", actor: curator }))).toMatchObject({ code: "conflict" });
+    expect(await refusal(verifyEntry({ paperId, actor: curator }))).toMatchObject({ code: "conflict" });
+    expect(await refusal(submitEntry({ paperId, actor: coder }))).toMatchObject({ code: "conflict" });
   });
 
   it("submitting from a stale version is refused, so a coder never submits what they have not seen", async () => {
@@ -127,5 +128,32 @@ describe("who may take each step", () => {
     const paperId = await newDraft(coder);
     await save(paperId, coder, twoModelDocument(1));
     expect(await refusal(submitEntry({ paperId, version: 1, actor: coder }))).toMatchObject({ code: "conflict" });
+  });
+});
+
+describe("a correction to a verified entry", () => {
+  it("returns the verified entry to its coder, hides it from the public until it is verified again", async () => {
+    const coder = await person("contributor");
+    const curatorA = await person("curator");
+    const curatorB = await person("curator");
+    const paperId = await newDraft(coder);
+    await save(paperId, coder, twoModelDocument(1));
+    await submitEntry({ paperId, actor: coder });
+    await verifyEntry({ paperId, actor: curatorA });
+
+    // only a curator may send it back
+    expect(await refusal(returnEntry({ paperId, comment: "The authors' erratum changes Table 2.", actor: coder }))).toMatchObject({ code: "forbidden" });
+    await expect(returnEntry({ paperId, comment: "The authors' erratum changes Table 2.", actor: curatorB })).resolves.toBe("returned");
+    expect(await stateOf(paperId)).toMatchObject({ state: "returned", curatorComment: "The authors' erratum changes Table 2." });
+    const { models } = await db();
+    expect(await models.Paper.count({ where: { id: paperId, state: "verified" } })).toBe(0);
+    const mail = await models.OutboxMessage.findOne({ where: { to: coder.email, kind: "entry-returned" }, order: [["id", "DESC"]] });
+    expect(mail?.text).toContain("The authors' erratum changes Table 2.");
+    const event = await models.AuditEvent.findOne({ where: { entity: "Paper", entityId: String(paperId), action: "return" }, order: [["id", "DESC"]] });
+    expect([event?.before, event?.after]).toMatchObject([{ state: "verified" }, { state: "returned" }]);
+
+    // the coder fixes and resubmits it; a curator verifies it again
+    await expect(submitEntry({ paperId, actor: coder })).resolves.toBe("submitted");
+    await expect(verifyEntry({ paperId, actor: curatorB })).resolves.toBe("verified");
   });
 });

@@ -9,9 +9,9 @@ const curator = { id: 3, role: "curator" as const };
 const entry = (state: "draft" | "submitted" | "returned" | "verified", createdBy = coder.id) => ({ state, createdBy });
 
 describe("the state machine", () => {
-  it("leads draft → submitted → returned → submitted → verified", () => {
+  it("leads draft → submitted → returned → submitted → verified, and back to returned for a correction", () => {
     expect(STEPS.submit).toEqual({ from: ["draft", "returned"], to: "submitted" });
-    expect(STEPS.return).toEqual({ from: ["submitted"], to: "returned" });
+    expect(STEPS.return).toEqual({ from: ["submitted", "verified"], to: "returned" });
     expect(STEPS.verify).toEqual({ from: ["submitted"], to: "verified" });
   });
 
@@ -38,6 +38,9 @@ describe("who may take each step", () => {
     expect(stepRefusal("verify", entry("submitted"), otherContributor)).toMatch(/Only a curator/);
     expect(stepRefusal("return", entry("submitted"), curator)).toBeNull();
     expect(stepRefusal("verify", entry("submitted"), curator)).toBeNull();
+    // a verified entry goes back to its coder only through a curator
+    expect(stepRefusal("return", entry("verified"), curator)).toBeNull();
+    expect(stepRefusal("return", entry("verified"), coder)).toMatch(/Only a curator/);
   });
 
   it("four-eyes: a curator never verifies an entry they coded, but may return it", () => {

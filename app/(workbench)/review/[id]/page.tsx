@@ -68,14 +68,23 @@ export default async function ReviewEntryPage({ params }: { params: Promise<{ id
             <ReturnForm paperId={paper.id} />
           </div>
         </section>
+      ) : paper.state === "verified" ? (
+        <section aria-labelledby="correction" className="space-y-3 border-t border-rule pt-4">
+          <Notice tone="success" title="Verified">
+            <span data-testid="review-outcome">{`Verified by ${paper.verifierName ?? "a curator"} on ${paper.verifiedAt?.slice(0, 10) ?? ""}; the entry is public.`}</span>
+          </Notice>
+          <div className="max-w-xl space-y-2">
+            <h2 id="correction" className="text-sm font-semibold">Return for a correction</h2>
+            <p className="text-sm text-ink-soft">
+              When a correction (see <Link href="/review/corrections">Corrections</Link>) or your own reading shows the coding is wrong, return the entry to its contributor. It leaves the public corpus until a curator verifies it again.
+            </p>
+            <ReturnForm paperId={paper.id} button="Return for a correction" hint="Say what the correction is and where in the paper. The contributor is e-mailed this comment; the entry is hidden from the public until it is verified again." />
+          </div>
+        </section>
       ) : (
-        <Notice tone={paper.state === "verified" ? "success" : "info"} title={paper.state === "verified" ? "Verified" : paper.state === "returned" ? "Returned to the contributor" : "Not submitted"}>
+        <Notice tone="info" title={paper.state === "returned" ? "Returned to the contributor" : "Not submitted"}>
           <span data-testid="review-outcome">
-            {paper.state === "verified"
-              ? `Verified by ${paper.verifierName ?? "a curator"} on ${paper.verifiedAt?.slice(0, 10) ?? ""}; the entry is public.`
-              : paper.state === "returned"
-                ? "The contributor has the comment and can fix and resubmit the entry."
-                : "This entry is a draft; only submitted entries can be verified or returned."}
+            {paper.state === "returned" ? "The contributor has the comment and can fix and resubmit the entry." : "This entry is a draft; only submitted entries can be verified or returned."}
           </span>
         </Notice>
       )}

@@ -19,16 +19,19 @@ export function VerifyForm({ paperId }: { paperId: number }) {
   );
 }
 
-export function ReturnForm({ paperId }: { paperId: number }) {
+const RETURN_HINT = "Say what to check or change, and where in the paper. The contributor is e-mailed this comment.";
+
+/** Returns a submitted entry — or a verified one, for a correction — to its coder with a comment. */
+export function ReturnForm({ paperId, hint = RETURN_HINT, button = "Return with this comment" }: { paperId: number; hint?: string; button?: string }) {
   const [state, action] = useActionState(returnPaperEntry, IDLE_STATE);
   return (
     <form action={action} className="space-y-2">
       <input type="hidden" name="paperId" value={paperId} />
-      <TextAreaField name="comment" id="return-comment" label="Comment for the contributor" required rows={3} maxLength={5000} errors={state.fieldErrors.comment} defaultValue={state.ok ? "" : state.values?.comment} hint="Say what to check or change, and where in the paper. The contributor is e-mailed this comment." />
+      <TextAreaField name="comment" id="return-comment" label="Comment for the contributor" required rows={3} maxLength={5000} errors={state.fieldErrors.comment} defaultValue={state.ok ? "" : state.values?.comment} hint={hint} />
       <ActionMessage state={state} />
       {state.ok ? null : (
         <SubmitButton tone="secondary" pendingLabel="Returning…">
-          Return with this comment
+          {button}
         </SubmitButton>
       )}
     </form>

@@ -63,7 +63,7 @@ export default async function CorrectionsPage({ searchParams }: { searchParams: 
                 <span className="text-xs text-ink-faint">{item.createdAt.toISOString().slice(0, 16).replace("T", " ")} UTC</span>
               </div>
               <p className="text-xs text-ink-soft">
-                From {item.name} · <a href={`mailto:${item.email}`}>{item.email}</a>
+                From {item.name} · <a href={`mailto:${item.email}`}>{item.email}</a> · <Link href={`/review/${item.paperId}`}>Open the entry in review</Link> (to return it to its contributor for the correction)
               </p>
               <p className="whitespace-pre-wrap">{item.message}</p>
               <CorrectionStatusForm correctionId={item.id} next={status === "open" ? "closed" : "open"} />
