@@ -267,4 +267,16 @@ describe.skipIf(!e2e.enabled)("curation in the browser", () => {
     expect(await page.locator("progress").getAttribute("value")).toBe(total);
     expect(problems).toEqual([]);
   });
+
+  it("a curator returns the verified entry for a correction, and the public no longer sees it", async () => {
+    const { page, problems } = await openPage(browser, e2e.baseUrl);
+    await signInAs(page, CURATOR, `/review/${paperId}`);
+    await page.getByLabel("Comment for the contributor").fill("The authors' erratum gives N = 412 for the second sample.");
+    await page.getByRole("button", { name: "Return for a correction" }).click();
+    await page.getByTestId("review-outcome").getByText("The contributor has the comment").waitFor();
+    const mail = await waitForMessage(e2e.mailUrl, { to: CONTRIBUTOR, subject: "Your entry was returned", contains: "N = 412" });
+    expect(mail.text).toContain(`/workbench/papers/${paperId}`);
+    expect((await fetch(`${e2e.baseUrl}/api/papers/${paperId}`)).status).toBe(404);
+    expect(problems).toEqual([]);
+  });
 });
