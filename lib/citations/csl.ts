@@ -115,17 +115,22 @@ export function cslToMetadata(item: CslItem): PaperMetadata {
   };
 }
 
-/** The CSL record a paper's own fields describe (for formatting when no resolved record was kept). */
-export function paperToCsl(paper: { id: number; doi: string | null; title: string; authors: CslName[]; journal: string | null; year: number | null; volume: string | null; issue: string | null; pages: string | null; csl?: Record<string, unknown> | null }): CslItem {
+/**
+ * The CSL record of a paper, for the paper page's reference and for BibTeX/RIS exports: its stored
+ * fields win over the resolved record (kept from the DOI registry or a pasted citation), which fills the
+ * rest. The id (citation-js turns it into nothing visible; exports key records by it) is the DOI, else
+ * the sheet's paper reference, else the paper's number.
+ */
+export function paperToCsl(paper: { id: number; doi: string | null; ref?: string | null; title: string; authors: CslName[]; journal: string | null; year: number | null; volume: string | null; issue: string | null; pages: string | null; csl?: Record<string, unknown> | null }): CslItem {
   const item: CslItem = {
     ...(paper.csl ?? {}),
-    id: `paper-${paper.id}`,
-    type: (paper.csl?.type as string | undefined) ?? "article-journal",
+    id: paper.doi ?? paper.ref ?? `fitledger-${paper.id}`,
+    type: typeof paper.csl?.type === "string" ? paper.csl.type : "article-journal",
     title: paper.title,
-    author: paper.authors,
   };
+  if (paper.authors.length > 0) item.author = paper.authors;
   if (paper.journal) item["container-title"] = paper.journal;
-  if (paper.year) item.issued = { "date-parts": [[paper.year]] };
+  if (paper.year !== null) item.issued = { "date-parts": [[paper.year]] };
   if (paper.volume) item.volume = paper.volume;
   if (paper.issue) item.issue = paper.issue;
   if (paper.pages) item.page = paper.pages;

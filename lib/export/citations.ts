@@ -1,12 +1,10 @@
 import "server-only";
-// BibTeX and RIS of the selected papers through citation-js (@citation-js/plugin-bibtex, plugin-ris,
-// plugin-csl). A paper's resolved CSL record is used when there is one; otherwise a record is built from
-// its stored fields. Papers are read and formatted a page at a time.
-import { Cite } from "@citation-js/core";
-import "@citation-js/plugin-bibtex";
-import "@citation-js/plugin-ris";
-import "@citation-js/plugin-csl";
+// BibTeX and RIS of the selected papers through citation-js, set up in lib/citations: each paper's CSL
+// record is lib/citations' paperToCsl (stored fields over the resolved record). Papers are read and
+// formatted a page at a time.
 import { Op } from "sequelize";
+import { writeCitations } from "@/lib/citations/cite";
+import { paperToCsl } from "@/lib/citations/csl";
 import { Paper } from "@/models";
 import { EXPORT_CAUTION } from "./caution";
 import { DEFAULT_PAGE_SIZE, selectedPaperIds, type ExportSelection } from "./selection";
@@ -25,25 +23,9 @@ export interface CitablePaper {
   csl: Record<string, unknown> | null;
 }
 
-/** The CSL-JSON item citation-js formats: the stored fields win over the resolved record, which fills the rest. */
-export function paperCsl(paper: CitablePaper): Record<string, unknown> {
-  const item: Record<string, unknown> = { ...(paper.csl ?? {}) };
-  item.id = paper.doi ?? paper.ref ?? `fitledger-${paper.id}`;
-  item.type = typeof item.type === "string" ? item.type : "article-journal";
-  item.title = paper.title;
-  if (paper.authors.length > 0) item.author = paper.authors;
-  if (paper.journal) item["container-title"] = paper.journal;
-  if (paper.year !== null) item.issued = { "date-parts": [[paper.year]] };
-  if (paper.volume) item.volume = paper.volume;
-  if (paper.issue) item.issue = paper.issue;
-  if (paper.pages) item.page = paper.pages;
-  if (paper.doi) item.DOI = paper.doi;
-  return item;
-}
-
 function format(papers: readonly CitablePaper[], style: "bibtex" | "ris"): string {
   if (papers.length === 0) return "";
-  return String(new Cite(papers.map(paperCsl)).format(style, { format: "text" }));
+  return writeCitations(papers.map(paperToCsl), style);
 }
 
 export function papersToBibtex(papers: readonly CitablePaper[]): string {

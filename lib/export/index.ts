@@ -4,7 +4,7 @@ import "server-only";
 // workbench's own-drafts download call these; `scope` is required and decides what is visible.
 export { streamSheetExport, entryRecord } from "./sheet";
 export { streamJsonExport } from "./json";
-export { papersToBibtex, papersToRis, paperCsl, streamBibtexExport, streamRisExport, type CitablePaper } from "./citations";
+export { papersToBibtex, papersToRis, streamBibtexExport, streamRisExport, type CitablePaper } from "./citations";
 export { EXPORT_CAUTION } from "./caution";
 export { type ExportScope, type ExportSelection } from "./selection";
 export { exportResponse, EXPORT_CONTENT } from "./response";
