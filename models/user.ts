@@ -15,6 +15,8 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare role: CreationOptional<Role>;
   declare status: CreationOptional<AccountStatus>;
   declare statusNote: string | null;
+  /** sessions that began before this instant count as signed out (lib/auth/session-cutoff.ts) */
+  declare sessionsValidAfter: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -38,6 +40,7 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
         role: { type: DataTypes.STRING(20), allowNull: false, defaultValue: "contributor", validate: { isIn: [ROLES] } },
         status: { type: DataTypes.STRING(20), allowNull: false, defaultValue: "pending", validate: { isIn: [ACCOUNT_STATUSES] } },
         statusNote: { type: DataTypes.TEXT, allowNull: true },
+        sessionsValidAfter: { type: DataTypes.DATE, allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

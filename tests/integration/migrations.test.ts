@@ -1,5 +1,5 @@
 import { afterEach, describe, expect, it } from "vitest";
-import { migrateUp, pendingMigrations } from "@/lib/db/migrate";
+import { migrateUp, migrator, pendingMigrations } from "@/lib/db/migrate";
 import { migrations } from "@/migrations";
 import { createTestDatabase, type TestDatabase } from "../support/test-db";
 
@@ -40,5 +40,28 @@ describe("numbered migrations", () => {
     expect(await indexedColumns("papers")).toEqual(expect.arrayContaining(["year", "journal", "state", "field", "doi"]));
     expect(await indexedColumns("fit_models")).toContain("estimator");
     expect(await indexedColumns("comparisons")).toContain("method");
+  });
+
+  it("0006 adds the session cutoff to users, and its down removes it keeping every person and every row that points at one", async () => {
+    database = await createTestDatabase();
+    const queryInterface = database.sequelize.getQueryInterface();
+    expect(await queryInterface.describeTable("users")).toHaveProperty("sessions_valid_after");
+    const { models } = database;
+    const person = await models.User.create({ email: "kept@example.org", name: "Kept", affiliation: null, reason: null, passwordHash: "x", statusNote: null, sessionsValidAfter: new Date() });
+    await models.PasswordResetToken.create({ userId: person.id, tokenHash: "a".repeat(64), expiresAt: new Date(), usedAt: null });
+
+    await migrator(database.sequelize).down({ to: "0006-sessions-valid-after" });
+    expect(await pendingMigrations(database.sequelize)).toEqual(["0006-sessions-valid-after"]);
+    expect(await queryInterface.describeTable("users")).not.toHaveProperty("sessions_valid_after");
+    // a table rebuild (DROP TABLE users) would have taken the reset token with it through ON DELETE CASCADE
+    const [users] = await database.sequelize.query("SELECT email FROM users");
+    const [tokens] = await database.sequelize.query("SELECT user_id FROM password_reset_tokens");
+    expect(users).toEqual([{ email: "kept@example.org" }]);
+    expect(tokens).toEqual([{ user_id: person.id }]);
+    const indexes = (await queryInterface.showIndex("users")) as { unique: boolean; fields: { attribute: string }[] }[];
+    expect(indexes.some((index) => index.unique && index.fields.some((field) => field.attribute === "email"))).toBe(true);
+
+    expect(await migrateUp(database.sequelize)).toEqual(["0006-sessions-valid-after"]);
+    expect(await queryInterface.describeTable("users")).toHaveProperty("sessions_valid_after");
   });
 });
