@@ -21,9 +21,13 @@ import { revokeResetTokens } from "./password-reset";
 import { hashPassword, verifyPassword } from "./password";
 import { creationValues } from "./creation-values";
 import { ROLE_LABELS, STATUS_LABELS } from "./roles";
+import { nextCutoff } from "./session-cutoff";
 
 // Every change to an account: one transaction holding the change, its AuditEvent and the e-mail to the
-// person concerned (outbox), so none of the three can happen without the others.
+// person concerned (outbox), so none of the three can happen without the others. A suspension, a decline
+// and a password change also move the account's session cutoff (lib/auth/session-cutoff.ts) in that
+// transaction, ending every session that began before it; a later reactivation or approval leaves the
+// cutoff where it is, so those sessions stay ended.
 
 interface Actor {
   id: number;
@@ -120,7 +124,7 @@ export async function declinePerson({ actor, userId, reason }: { actor: Actor; u
   return adminChange(async (transaction) => {
     const target = await loadTarget(userId, transaction);
     expectStatus(target, ["pending"], "declined");
-    await updateAudited(target, { status: "declined", statusNote: reason }, { actorId: actor.id, transaction, action: "decline" });
+    await updateAudited(target, { status: "declined", statusNote: reason, sessionsValidAfter: nextCutoff(target.sessionsValidAfter) }, { actorId: actor.id, transaction, action: "decline" });
     await queueDeclinedMail({ email: target.email, name: target.name, reason }, { actorId: actor.id, transaction });
     forgetAfterCommit(transaction, target.id);
     return `${target.name}'s application was declined; they have been sent the reason.`;
@@ -133,7 +137,7 @@ export async function suspendPerson({ actor, userId, reason }: { actor: Actor; u
     const target = await loadTarget(userId, transaction);
     expectStatus(target, ["active"], "suspended");
     await keepAnAdmin(target, transaction);
-    await updateAudited(target, { status: "suspended", statusNote: reason }, { actorId: actor.id, transaction, action: "suspend" });
+    await updateAudited(target, { status: "suspended", statusNote: reason, sessionsValidAfter: nextCutoff(target.sessionsValidAfter) }, { actorId: actor.id, transaction, action: "suspend" });
     await queueSuspendedMail({ email: target.email, name: target.name, reason }, { actorId: actor.id, transaction });
     forgetAfterCommit(transaction, target.id);
     return `${target.name} is suspended and signed out; they have been sent the reason.`;
@@ -178,10 +182,14 @@ export async function updateProfile({ user, name, affiliation }: { user: Actor; 
   });
 }
 
+/**
+ * Changes one's own password and ends every session that began before the change, the caller's own
+ * included; the caller renews its session from `sessionsValidAfter` (renewSession in lib/auth/session.ts).
+ */
 export async function changePassword(
   { user, currentPassword, newPassword }: { user: Actor & { email: string }; currentPassword: string; newPassword: string },
   context: { address: string },
-): Promise<string> {
+): Promise<{ message: string; sessionsValidAfter: Date }> {
   const subject = { address: context.address, email: user.email };
   const blocked = signInBlock(subject);
   if (blocked) throw blocked;
@@ -195,9 +203,11 @@ export async function changePassword(
   const { sequelize } = await db();
   return sequelize.transaction(async (transaction) => {
     const row = await loadTarget(user.id, transaction);
-    await updateAudited(row, { passwordHash }, { actorId: user.id, transaction, action: "change-password" });
+    const sessionsValidAfter = nextCutoff(row.sessionsValidAfter);
+    await updateAudited(row, { passwordHash, sessionsValidAfter }, { actorId: user.id, transaction, action: "change-password" });
     await revokeResetTokens({ userId: user.id, actorId: user.id, transaction });
     await queuePasswordChangedMail({ email: row.email, name: row.name }, { actorId: user.id, transaction });
-    return "Your password is changed. We have sent you an e-mail to confirm it.";
+    forgetAfterCommit(transaction, user.id);
+    return { message: "Your password is changed and your other sessions are signed out. We have sent you an e-mail to confirm it.", sessionsValidAfter };
   });
 }

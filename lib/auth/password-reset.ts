@@ -8,10 +8,12 @@ import { forgetAccount } from "./account-cache";
 import { creationValues } from "./creation-values";
 import { consumeResetAttempt } from "./limits";
 import { hashPassword } from "./password";
+import { nextCutoff } from "./session-cutoff";
 import type { PasswordResetToken } from "@/models/password-reset-token";
 
 // Password reset by e-mailed link. The token is 32 random bytes; only its SHA-256 hash is stored (a
-// fast hash is enough for a random 256-bit value, unlike a password). It works once, for an hour.
+// fast hash is enough for a random 256-bit value, unlike a password). It works once, for an hour. A
+// reset ends every session of the account (someone may have the old password or a stolen session).
 
 export const RESET_TTL_MINUTES = 60;
 const INVALID_LINK = "This reset link has expired or has already been used.";
@@ -66,7 +68,8 @@ export async function resetPassword({ token, password }: { token: string; passwo
 
     const user = await models.User.findByPk(row.userId, { transaction });
     if (!user || user.status !== "active") throw new AppError("bad_request", INVALID_LINK);
-    await updateAudited(user, { passwordHash }, { actorId: user.id, transaction, action: "reset-password" });
+    // the cutoff is taken here, after the slow password hash, so no session begun meanwhile survives
+    await updateAudited(user, { passwordHash, sessionsValidAfter: nextCutoff(user.sessionsValidAfter) }, { actorId: user.id, transaction, action: "reset-password" });
     await revokeResetTokens({ userId: user.id, actorId: user.id, transaction });
     await queuePasswordChangedMail({ email: user.email, name: user.name }, { actorId: user.id, transaction });
     transaction.afterCommit(() => forgetAccount(user.id));

@@ -1,8 +1,9 @@
 import "server-only";
 import { cookies, headers } from "next/headers";
 import { getServerSession } from "next-auth/next";
+import type { AccountState } from "@/lib/db/queries/users";
 import { clientAddressFrom } from "./client-address";
-import { authOptions } from "./options";
+import { authOptions, issueSessionToken, SESSION_MAX_AGE_SECONDS, sessionCookie } from "./options";
 
 // The one place that asks next-auth who is calling, and the request's network address. The guards,
 // getCurrentUser() and the pages go through these functions only, so integration tests can stand in
@@ -37,4 +38,16 @@ export async function readSession(): Promise<SessionIdentity | null> {
 
 export async function readClientAddress(): Promise<string> {
   return clientAddressFrom(await headers());
+}
+
+/**
+ * Replaces the caller's session cookie with a token whose session begins at `startedAt` — for a person
+ * who has just changed their own password, which ended every session that began before `startedAt`.
+ * The caller proved the current password, so this is as good as signing in again. Server actions only
+ * (a server component cannot set cookies).
+ */
+export async function renewSession(account: AccountState, startedAt: Date): Promise<void> {
+  const cookie = sessionCookie();
+  const token = await issueSessionToken(account, startedAt.getTime());
+  (await cookies()).set(cookie.name, token, { ...cookie.options, expires: new Date(Date.now() + SESSION_MAX_AGE_SECONDS * 1000) });
 }

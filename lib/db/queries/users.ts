@@ -31,10 +31,15 @@ function plain<T>(row: { get(options: { plain: true }): unknown } | null): T | n
 const ACCOUNT_ATTRIBUTES = ["id", "email", "name", "role", "status"] as const;
 const PERSON_ATTRIBUTES = [...ACCOUNT_ATTRIBUTES, "affiliation", "reason", "statusNote", "createdAt", "updatedAt"] as const;
 
-export async function readAccountState({ userId }: { userId: number }): Promise<AccountState | null> {
+/** The account as the per-request session check needs it: its state and the time before which its sessions ended. */
+export interface SessionAccount extends AccountState {
+  sessionsValidAfter: Date | null;
+}
+
+export async function readSessionAccount({ userId }: { userId: number }): Promise<SessionAccount | null> {
   const { models } = await db();
-  const row = await models.User.findByPk(userId, { attributes: [...ACCOUNT_ATTRIBUTES] });
-  return plain<AccountState>(row);
+  const row = await models.User.findByPk(userId, { attributes: [...ACCOUNT_ATTRIBUTES, "sessionsValidAfter"] });
+  return plain<SessionAccount>(row);
 }
 
 export async function readPerson({ userId }: { userId: number }): Promise<PersonRow | null> {

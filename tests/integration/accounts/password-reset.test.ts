@@ -8,6 +8,8 @@ vi.mock("@/lib/auth/session", async (importOriginal) => ({
   readClientAddress: async () => "203.0.113.23",
 }));
 vi.mock("next/cache", () => ({ revalidatePath: () => undefined }));
+// a password change renews the caller's session cookie (ending-sessions.test.ts looks at that cookie)
+vi.mock("next/headers", async () => (await import("./request-context")).nextHeaders);
 
 const { requestResetLink, setPasswordFromLink } = await import("@/app/(auth)/actions");
 const { changeOwnPassword } = await import("@/app/(account)/account/actions");
