@@ -13,7 +13,7 @@ import { ImportBatch, ImportChunk, ImportRow } from "@/models";
 import type { ImportRowDetails } from "@/models/import-row";
 import { withoutErrorColumn } from "./error-column";
 import { processSheet, type RowVerdict, type SheetSummary } from "./process";
-import { endProgress, startProgress } from "./progress";
+import { endProgress, startProgress, type ImportProgress } from "./progress";
 import { ImportWriter, type WriteTotals } from "./writer";
 
 /** Accepted rows shown in the preview (every rejected row is kept, whatever the count). */
@@ -159,9 +159,27 @@ export interface CommitResult {
   totals: WriteTotals;
 }
 
+/** A batch claimed for its commit: its status is "committing" and its live progress is registered. */
+export interface CommitClaim {
+  batchId: number;
+  uploaderId: number;
+  /** the dry run's counts, kept beside the commit's */
+  dryRun: Record<string, number>;
+  progress: ImportProgress;
+}
+
 /** Writes every accepted row in one transaction; on any failure nothing of it stays. */
 export async function runCommit(batchId: number, uploaderId: number): Promise<CommitResult | null> {
-  const { sequelize } = await db();
+  return commitClaimed(await claimCommit(batchId, uploaderId));
+}
+
+/**
+ * Checks that the uploader's batch can be committed and claims it (status "committing", live progress
+ * registered), or throws the reason as an AppError. The commit route waits for this before answering, so
+ * a page read right after the answer already sees the commit running.
+ */
+export async function claimCommit(batchId: number, uploaderId: number): Promise<CommitClaim> {
+  await db();
   const batch = await loadBatch(batchId, uploaderId);
   if (!(batch.status === "previewed" || (batch.status === "failed" && batch.progress?.previewed === 1))) {
     throw new AppError("conflict", batch.status === "committed" ? "This import has already been committed." : "Only a previewed import can be committed; wait for its dry run to finish.");
@@ -171,7 +189,13 @@ export async function runCommit(batchId: number, uploaderId: number): Promise<Co
   // claim the batch atomically: a second press of the button finds it committing and stops here
   const [claimed] = await ImportBatch.update({ status: "committing" }, { where: { id: batchId, status: batch.status } });
   if (claimed === 0) throw new AppError("conflict", "This import is already being committed.");
-  const progress = startProgress(batchId);
+  return { batchId, uploaderId, dryRun: dryRun as Record<string, number>, progress: startProgress(batchId) };
+}
+
+/** The commit of a claimed batch: every accepted row in one transaction, the outcome recorded on the batch. */
+export async function commitClaimed(claim: CommitClaim): Promise<CommitResult | null> {
+  const { batchId, uploaderId, dryRun, progress } = claim;
+  const { sequelize } = await db();
   try {
     const settings = await readRecheckSettings();
     // IMMEDIATE: take the write lock now, so the ids counted from max(id) stay free until the commit

@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it, onTestFinished, vi } from "v
 import { createTestDatabase, type TestDatabase } from "../../support/test-db";
 import { AuditEvent, Comparison, FitModel, Flag, Paper, Sample } from "@/models";
 import { readBatch } from "@/lib/db/queries/imports";
-import { createBatch, runCommit, runDryRun, stageUpload } from "@/lib/import/batches";
+import { claimCommit, commitClaimed, createBatch, runCommit, runDryRun, stageUpload } from "@/lib/import/batches";
 import { liveProgress } from "@/lib/import/progress";
 import { createAccount, dryRun, importSheet } from "./support";
 
@@ -143,6 +143,18 @@ describe("a page read while an import starts", () => {
     expect(view!.live).not.toBeNull();
     await run;
     expect(await readBatch({ batchId, uploaderId: coder })).toMatchObject({ status: "previewed", interrupted: false, live: null });
+  });
+
+  it("claims a commit before the route answers: a page read right after sees it running", async () => {
+    const batch = await dryRun(coder, several.replaceAll("10.5555/", "10.5555/claimed-"));
+    expect(batch.status).toBe("previewed");
+    const claim = await claimCommit(batch.id, coder);
+    const view = await readBatch({ batchId: batch.id, uploaderId: coder });
+    expect(view).toMatchObject({ status: "committing", interrupted: false });
+    expect(view!.live).not.toBeNull();
+    await expect(claimCommit(batch.id, coder)).rejects.toThrow(/Only a previewed import/); // a second press
+    await commitClaimed(claim);
+    expect(await readBatch({ batchId: batch.id, uploaderId: coder })).toMatchObject({ status: "committed", live: null });
   });
 
   it("takes a running status without live progress for interrupted only once it is old (a restart)", async () => {
