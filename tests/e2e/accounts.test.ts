@@ -8,7 +8,8 @@ const e2e = inject("e2e");
 
 // The account side in a real browser against the built app: the demo admin (seeded with the demo
 // password) approves a new applicant on /admin/people, the approval arrives in the fake SMTP inbox, the
-// person signs in to the workbench, and after a suspension their next page load signs them out.
+// person signs in to the workbench, changes their password (which signs out their other browser but
+// not this one), and after a suspension their next page load signs them out.
 
 const ADMIN = { email: "admin@fitledger.test", password: "fitledger-demo" };
 const applicant = {
@@ -18,6 +19,7 @@ const applicant = {
   affiliation: "Centre for Replication Studies",
   reason: "I code measurement invariance papers for a meta-analysis of reporting errors.",
   password: "chi square differences add up",
+  newPassword: "degrees of freedom add up too",
 };
 
 async function signIn(page: Page, email: string, password: string, next?: string) {
@@ -98,6 +100,29 @@ describe.skipIf(!e2e.enabled)("accounts in the browser", () => {
     expect(applicantProblems).toEqual(["console error: Failed to load resource: the server responded with a status of 401 (Unauthorized)"]);
   });
 
+  it("changing the password keeps this browser signed in and signs the person's other browser out", async () => {
+    const { page: otherPage } = await openPage(browser, e2e.baseUrl);
+    await signIn(otherPage, applicant.email, applicant.password);
+    await otherPage.waitForURL(/\/workbench$/);
+
+    await applicantPage.goto("/account");
+    await applicantPage.getByLabel("Current password").fill(applicant.password);
+    await applicantPage.getByLabel("New password", { exact: true }).fill(applicant.newPassword);
+    await applicantPage.getByLabel("New password again").fill(applicant.newPassword);
+    await applicantPage.getByRole("button", { name: "Change password" }).click();
+    await applicantPage.getByText("Your password is changed and your other sessions are signed out.").waitFor();
+    await applicantPage.goto("/workbench");
+    await applicantPage.getByRole("heading", { name: "Your workbench" }).waitFor();
+
+    await otherPage.goto("/workbench");
+    await otherPage.waitForURL(/\/signin/);
+    await signIn(otherPage, applicant.email, applicant.password);
+    await otherPage.getByText("That e-mail address and password do not match an account.").waitFor();
+    await signIn(otherPage, applicant.email, applicant.newPassword);
+    await otherPage.waitForURL(/\/workbench$/);
+    await otherPage.context().close();
+  });
+
   it("after an admin suspends the person, their next page load signs them out", async () => {
     const row = await peopleRow(adminPage, "active", applicant.email);
     await row.getByLabel(/Reason for suspending/).fill("Testing the suspension path.");
@@ -107,7 +132,7 @@ describe.skipIf(!e2e.enabled)("accounts in the browser", () => {
     await applicantPage.reload();
     await applicantPage.waitForURL(/\/signin/);
     await applicantPage.getByRole("navigation", { name: "Account" }).getByRole("link", { name: "Sign in" }).waitFor();
-    await signIn(applicantPage, applicant.email, applicant.password);
+    await signIn(applicantPage, applicant.email, applicant.newPassword);
     await applicantPage.getByText("This account is suspended").waitFor();
   });
 });
