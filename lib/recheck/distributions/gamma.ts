@@ -13,7 +13,6 @@
 
 const LN_SQRT_2PI = 0.9189385332046727; // ln √(2π)
 const EPSILON = 1e-16;
-const TINY = 1e-300;
 const MAX_ITERATIONS = 100_000;
 
 /**
@@ -78,6 +77,9 @@ function lowerSeries(a: number, x: number): number {
 
 /** Continued fraction of Q(a, x) without the prefactor, by modified Lentz (Numerical Recipes gcf). */
 function upperContinuedFraction(a: number, x: number): number {
+  // Lentz's floor for vanishing denominators. A local constant on purpose: assigning a module-level one
+  // to c and d inside the loop made V8 keep both as boxed numbers, one heap allocation per iteration.
+  const TINY = 1e-300;
   let b = x + 1 - a;
   let c = 1 / TINY;
   let d = 1 / b;
