@@ -201,7 +201,13 @@ export async function commitClaimed(claim: CommitClaim): Promise<CommitResult | 
     // IMMEDIATE: take the write lock now, so the ids counted from max(id) stay free until the commit
     const result = await sequelize.transaction({ type: Transaction.TYPES.IMMEDIATE }, async (transaction) => {
       const writer = new ImportWriter({ transaction, actorId: uploaderId, batchId, settings });
-      const summary = await processSheet({ open: () => stagedSource(batchId), uploaderId, settings, progress, transaction, writer });
+      let summary: SheetSummary;
+      try {
+        summary = await processSheet({ open: () => stagedSource(batchId), uploaderId, settings, progress, transaction, writer });
+      } finally {
+        // a failure while the writer's last statement still runs: let it end before the rollback
+        await writer.quiesce();
+      }
       await ImportBatch.update(
         {
           status: "committed",

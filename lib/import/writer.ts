@@ -1,6 +1,7 @@
 // Writes an import's accepted rows inside the caller's one transaction: bulk inserts with explicit ids
 // (assigned by the planner), bulk upserts for changed entries, flags computed from the values as stored,
-// and one audit event per created or changed entity — all in batches, never a query per row.
+// and one audit event per created or changed entity — all in batches, never a query per row. A batch is
+// written while the next one is prepared; the transaction never ends with a statement still running.
 import type { Transaction } from "sequelize";
 import { auditValues, type AuditRecord } from "@/lib/db/audit";
 import { fingerprint, rewriteFlagsForPaper } from "@/lib/db/flags";
@@ -59,6 +60,8 @@ export class ImportWriter {
   private flags: Row[] = [];
   private audits: AuditRecord[] = [];
   private readonly flagsPerPaper = new Map<number, number>();
+  /** the buffers being written while the next rows are prepared (see flush) */
+  private inFlight: Promise<void> | null = null;
   readonly totals: WriteTotals = { papersCreated: 0, papersChanged: 0, samplesWritten: 0, modelsWritten: 0, comparisonsWritten: 0, flagsWritten: 0, auditEvents: 0, doiLookups: 0 };
 
   constructor(
@@ -146,50 +149,81 @@ export class ImportWriter {
     }
   }
 
-  /** Writes the buffers: parents before children, so every foreign key already exists. */
+  /**
+   * Hands the buffers to the database and returns without waiting for it, so the next rows are read,
+   * validated and planned while SQLite writes these (on its own thread: the two cores both work). One
+   * write is in flight at a time: this first waits for the previous one, whose failure surfaces here.
+   */
   async flush(): Promise<void> {
+    await this.settle();
+    const buffers = { papers: this.papers, samples: this.samples, models: this.models, comparisons: this.comparisons, flags: this.flags, audits: this.audits };
+    if (Object.values(buffers).every((rows) => rows.length === 0)) return;
+    this.papers = [];
+    this.samples = [];
+    this.models = [];
+    this.comparisons = [];
+    this.flags = [];
+    this.audits = [];
+    const writing = this.write(buffers);
+    writing.catch(() => undefined); // observed by settle(); until then not an unhandled rejection
+    this.inFlight = writing;
+  }
+
+  /** Waits for the write in flight, if any; throws its failure. */
+  async settle(): Promise<void> {
+    const writing = this.inFlight;
+    this.inFlight = null;
+    if (writing) await writing;
+  }
+
+  /**
+   * Waits for the write in flight and ignores its outcome: the transaction must never end (commit or
+   * roll back) while one of its statements still runs, or that statement would land outside it.
+   */
+  async quiesce(): Promise<void> {
+    await this.settle().catch(() => undefined);
+  }
+
+  /** Writes one set of buffers: parents before children, so every foreign key already exists. */
+  private async write(buffers: { papers: Row[]; samples: Row[]; models: Row[]; comparisons: Row[]; flags: Row[]; audits: AuditRecord[] }): Promise<void> {
     const write = { transaction: this.options.transaction, now: this.now };
-    if (this.papers.length > 0) {
-      await bulkWrite(Paper, this.papers, write);
-      this.totals.papersCreated += this.papers.length;
-      this.papers = [];
+    const { papers, samples, models, comparisons, flags, audits } = buffers;
+    if (papers.length > 0) {
+      await bulkWrite(Paper, papers, write);
+      this.totals.papersCreated += papers.length;
     }
-    if (this.samples.length > 0) {
-      await bulkWrite(Sample, this.samples, { ...write, update: SAMPLE_UPDATES });
-      this.totals.samplesWritten += this.samples.length;
-      this.samples = [];
+    if (samples.length > 0) {
+      await bulkWrite(Sample, samples, { ...write, update: SAMPLE_UPDATES });
+      this.totals.samplesWritten += samples.length;
     }
-    if (this.models.length > 0) {
-      await bulkWrite(FitModel, this.models, { ...write, update: MODEL_UPDATES });
-      this.totals.modelsWritten += this.models.length;
-      this.models = [];
+    if (models.length > 0) {
+      await bulkWrite(FitModel, models, { ...write, update: MODEL_UPDATES });
+      this.totals.modelsWritten += models.length;
     }
-    if (this.comparisons.length > 0) {
-      await bulkWrite(Comparison, this.comparisons, { ...write, update: COMPARISON_UPDATES });
-      this.totals.comparisonsWritten += this.comparisons.length;
-      this.comparisons = [];
+    if (comparisons.length > 0) {
+      await bulkWrite(Comparison, comparisons, { ...write, update: COMPARISON_UPDATES });
+      this.totals.comparisonsWritten += comparisons.length;
     }
-    if (this.flags.length > 0) {
-      await bulkWrite(Flag, this.flags, write);
-      this.totals.flagsWritten += this.flags.length;
-      this.flags = [];
+    if (flags.length > 0) {
+      await bulkWrite(Flag, flags, write);
+      this.totals.flagsWritten += flags.length;
     }
-    if (this.audits.length > 0) {
+    if (audits.length > 0) {
       // the rows lib/db/audit.ts recordEvents writes, in one statement per few thousand
       const actorId = this.options.actorId;
       await bulkWrite(
         AuditEvent,
-        this.audits.map((a) => ({ actorId, entity: a.entity, entityId: String(a.entityId), action: a.action, before: a.before ?? null, after: a.after ?? null })),
+        audits.map((a) => ({ actorId, entity: a.entity, entityId: String(a.entityId), action: a.action, before: a.before ?? null, after: a.after ?? null })),
         write,
       );
-      this.totals.auditEvents += this.audits.length;
-      this.audits = [];
+      this.totals.auditEvents += audits.length;
     }
   }
 
   /** After the last row: paper metadata, flag rewrites of changed existing papers, DOI lookups. */
   async finish(papers: Iterable<PlannedPaper>): Promise<void> {
     await this.flush();
+    await this.settle();
     const { transaction, actorId, batchId, settings } = this.options;
     const upserts: Row[] = [];
     const lookups: Row[] = [];
@@ -230,5 +264,6 @@ export class ImportWriter {
     await bulkWrite(DoiLookup, lookups, write);
     this.totals.doiLookups = lookups.length;
     await this.flush();
+    await this.settle();
   }
 }

@@ -191,4 +191,18 @@ describe("a commit that fails part-way", () => {
     expect([...(await stored()), await AuditEvent.count()]).toEqual(before);
     expect(await Paper.count({ where: { doi: "10.5555/bad-input.5" } })).toBe(0);
   });
+
+  it("rolls back a failure in a batch written while the next rows are prepared", async () => {
+    // 3 000 rows write in three batches; the second holds row 1 500, whose comparison the database refuses
+    // while the importer already plans the rows after it
+    await database.sequelize.query("CREATE TRIGGER refuse_boom BEFORE INSERT ON comparisons WHEN NEW.label = 'Boom' BEGIN SELECT RAISE(ABORT, 'forced failure'); END");
+    const before = [...(await stored()), await AuditEvent.count()];
+    const rows = Array.from({ length: 3000 }, (_, i) => `10.5555/bad-input.6,A long paper that fails,S${i},300,${i === 1499 ? "Boom" : `C${i}`},lrt,9.20,2,A,40.10,26,B,30.90,24`);
+    const batch = await importSheet(coder, [HEADER, ...rows].join("\n"));
+    await database.sequelize.query("DROP TRIGGER refuse_boom");
+    expect(batch.status).toBe("failed");
+    expect(batch.failure).toMatch(/rolled back: nothing of this sheet was stored/);
+    expect([...(await stored()), await AuditEvent.count()]).toEqual(before);
+    expect(await Paper.count({ where: { doi: "10.5555/bad-input.6" } })).toBe(0);
+  });
 });
