@@ -12,8 +12,9 @@
 // log1p and δ(a) the Stirling-series remainder of ln Γ(a) — the same construction R's pgamma uses.
 
 const LN_SQRT_2PI = 0.9189385332046727; // ln √(2π)
-const EPSILON = 1e-16;
-const MAX_ITERATIONS = 100_000;
+// The loops' constants (relative tolerance 1e-16, at most 100 000 terms) are declared inside each
+// function on purpose: V8 reloads a module-level binding on every iteration, and assigning one inside
+// a loop made it box the loop's numbers (a heap allocation per iteration).
 
 /**
  * δ(a) = ln Γ(a) − [(a − ½) ln a − a + ln √(2π)], the remainder of Stirling's series, for a ≥ 10:
@@ -63,6 +64,8 @@ export function gammaPrefactor(a: number, x: number): number {
 
 /** Power series of P(a, x) without the prefactor: Σ x^n / [a (a+1) … (a+n)] (Numerical Recipes gser). */
 function lowerSeries(a: number, x: number): number {
+  const EPSILON = 1e-16;
+  const MAX_ITERATIONS = 100_000;
   let term = 1 / a;
   let sum = term;
   let ap = a;
@@ -77,9 +80,9 @@ function lowerSeries(a: number, x: number): number {
 
 /** Continued fraction of Q(a, x) without the prefactor, by modified Lentz (Numerical Recipes gcf). */
 function upperContinuedFraction(a: number, x: number): number {
-  // Lentz's floor for vanishing denominators. A local constant on purpose: assigning a module-level one
-  // to c and d inside the loop made V8 keep both as boxed numbers, one heap allocation per iteration.
-  const TINY = 1e-300;
+  const EPSILON = 1e-16;
+  const MAX_ITERATIONS = 100_000;
+  const TINY = 1e-300; // floor for vanishing denominators
   let b = x + 1 - a;
   let c = 1 / TINY;
   let d = 1 / b;
