@@ -27,7 +27,23 @@ export function show(x: number, digits = 3): string {
   const ax = Math.abs(x);
   if (ax < 1e-3 || ax >= 1e7) return formatMinus(x.toExponential(Math.max(0, digits - 1)));
   if (Number.isInteger(x)) return formatMinus(String(x));
-  return formatMinus(String(Number(x.toFixed(ax < 1 ? digits + 1 : digits))));
+  const fixed = x.toFixed(ax < 1 ? digits + 1 : digits);
+  return formatMinus(digits <= 7 ? withoutTrailingZeros(fixed) : String(Number(fixed)));
+}
+
+/**
+ * "12.340" → "12.34", "3.000" → "3", "-0.0" → "0": the same as String(Number(s)) for a toFixed string of
+ * at most 15 significant digits (such a decimal is the shortest form of its own double, so converting it
+ * to a number and back only drops the trailing zeros), without that round trip.
+ */
+function withoutTrailingZeros(s: string): string {
+  let end = s.length;
+  if (s.indexOf(".") >= 0) {
+    while (s.charCodeAt(end - 1) === 48 /* 0 */) end--;
+    if (s.charCodeAt(end - 1) === 46 /* . */) end--;
+  }
+  const out = end === s.length ? s : s.slice(0, end);
+  return out === "-0" ? "0" : out;
 }
 
 /** A p-value for messages: small ones in scientific notation. */
