@@ -4,7 +4,7 @@
 // ---------------------------------------------------------------------------------------------------
 import fs from "node:fs";
 import path from "node:path";
-import type { Sequelize } from "sequelize";
+import type { Sequelize, Transaction } from "sequelize";
 
 /** "sqlite:data/x.sqlite" → "data/x.sqlite"; "sqlite::memory:" → ":memory:"; null when not SQLite. */
 export function sqliteStorage(databaseUrl: string): string | null {
@@ -53,6 +53,7 @@ const TRANSACTION_PRAGMAS = ["PRAGMA cache_size = -65536"];
 
 interface RawConnection {
   run(sql: string, callback: (error: Error | null) => void): void;
+  serialize(work: () => void): void;
 }
 
 function runOn(connection: RawConnection, sql: string): Promise<void> {
@@ -82,4 +83,19 @@ export async function tuneSqlite(sequelize: Sequelize): Promise<void> {
     return connection;
   };
   await sequelize.query("PRAGMA journal_mode = WAL");
+}
+
+/**
+ * Runs a statement that returns no rows (a bulk INSERT of a few megabytes) on the transaction's own SQLite
+ * connection, in order with the statements Sequelize runs there. Sequelize's query() lower-cases the
+ * whole SQL text two or three times to classify it (abstract/query.js isShowOrDescribeQuery and others):
+ * for the ~250 MB of SQL a 100 000-row import writes, that is most of a gigabyte of garbage strings.
+ * Returns false when the database is not SQLite (the caller then goes through sequelize.query).
+ */
+export async function runStatement(sequelize: Sequelize, transaction: Transaction, sql: string): Promise<boolean> {
+  if (sequelize.getDialect() !== "sqlite") return false;
+  const connection = (transaction as unknown as { connection?: RawConnection }).connection;
+  if (!connection) return false;
+  await new Promise<void>((resolve, reject) => connection.serialize(() => connection.run(sql, (error) => (error ? reject(error) : resolve()))));
+  return true;
 }

@@ -6,6 +6,7 @@
 // subset both SQLite (≥ 3.24) and PostgreSQL accept; column names come from the models, values are
 // converted the way Sequelize stores them (JSON as text, dates as UTC timestamps).
 import { DataTypes, QueryTypes, type Model, type ModelStatic, type Transaction } from "sequelize";
+import { runStatement } from "@/lib/db/sqlite";
 
 /** Values per statement, to keep each statement a few megabytes at most. */
 const MAX_VALUES = 30_000;
@@ -87,6 +88,7 @@ export async function bulkWrite(model: ModelStatic<Model>, rows: readonly Row[],
       }
       tuples[r] = tuple + ")";
     }
-    await sequelize.query(head + tuples.join(",") + tail, { transaction: options.transaction, type: QueryTypes.INSERT });
+    const sql = head + tuples.join(",") + tail;
+    if (!(await runStatement(sequelize, options.transaction, sql))) await sequelize.query(sql, { transaction: options.transaction, type: QueryTypes.INSERT });
   }
 }
