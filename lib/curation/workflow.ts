@@ -1,6 +1,7 @@
 import "server-only";
 import type { Transaction } from "sequelize";
 import { db, updateAudited } from "@/lib/db";
+import { recordWithdrawal } from "@/lib/db/queries/search";
 import { AppError } from "@/lib/errors";
 import { queueEntryReturnedMail } from "@/lib/mail";
 import type { EntryState } from "@/models/paper";
@@ -10,7 +11,7 @@ import { STEPS, stepRefusal, type Actor, type EntryStep } from "./rules";
 // outbox, in the same transaction), verify (never by the person who coded it). Each step is one audited
 // update of the paper that only succeeds from the state it was checked in.
 
-async function step(step: EntryStep, paperId: number, actor: Actor, apply: (paper: { title: string; createdBy: number }) => Record<string, unknown>, after?: (input: { transaction: Transaction; paper: { id: number; title: string; createdBy: number } }) => Promise<void>, expectedVersion?: number): Promise<EntryState> {
+async function step(step: EntryStep, paperId: number, actor: Actor, apply: (paper: { title: string; createdBy: number; state: EntryState }) => Record<string, unknown>, after?: (input: { transaction: Transaction; paper: { id: number; title: string; createdBy: number } }) => Promise<void>, expectedVersion?: number): Promise<EntryState> {
   const { models, sequelize } = await db();
   return sequelize.transaction(async (transaction) => {
     const paper = await models.Paper.findOne({ where: { id: paperId }, transaction });
@@ -36,13 +37,19 @@ export function submitEntry({ paperId, version, actor }: { paperId: number; vers
 }
 
 export function returnEntry({ paperId, comment, actor }: { paperId: number; comment: string; actor: Actor }) {
+  let wasVerified = false;
   return step(
     "return",
     paperId,
     actor,
-    () => ({ curatorComment: comment }),
+    (paper) => {
+      wasVerified = paper.state === "verified";
+      return { curatorComment: comment };
+    },
     async ({ transaction, paper }) => {
       const { models } = await db();
+      // a verified entry leaves the public corpus: public searches must not be answered from an index built before
+      if (wasVerified) await recordWithdrawal({ transaction, actorId: actor.id });
       const coder = await models.User.findOne({ where: { id: paper.createdBy }, attributes: ["email", "name"], transaction });
       if (coder) await queueEntryReturnedMail({ to: coder.email, name: coder.name, paperTitle: paper.title, comment, entryPath: `/workbench/papers/${paper.id}` }, { actorId: actor.id, transaction });
     },

@@ -1,6 +1,6 @@
 import "server-only";
 import { db } from "@/lib/db";
-import { readSearchSignature, readSearchSource } from "@/lib/db/queries/search";
+import { readSearchSignature, readSearchSource, withdrawalsOf } from "@/lib/db/queries/search";
 import type { Paging } from "@/lib/validation/search";
 import { buildCorpusIndex, type CorpusIndex } from "./corpus-index";
 import { matchedIds, search, type SearchOptions, type SearchResult, type SearchScope } from "./engine";
@@ -15,10 +15,12 @@ export type { CorpusIndex } from "./corpus-index";
 // build of the newest data, however many changes arrive (an import commits many times a second).
 //
 // Curators and contributors wait for the fresh index, so their own edits show at once. Public readers
-// are answered from the previous index while a rebuild runs: a verified entry can neither leave the
-// verified state nor be edited (lib/curation/rules.ts), so a stale public index can only lack the newest
-// verifications and findings — it can never show a draft. Several app instances each keep their own
-// index and each checks the same signature, so they stay correct behind a load balancer.
+// are answered from the previous index while a rebuild runs, as long as no verified entry has been
+// returned to its coder since that index was built: a verified entry cannot be edited, and its only way
+// out of the public corpus (a curator returning it for a correction, lib/curation/workflow.ts) moves a
+// counter in the signature (withdrawalsOf). So a stale public index can only lack the newest
+// verifications and findings — it never shows an entry that is not verified. Several app instances each
+// keep their own index and each checks the same signature, so they stay correct behind a load balancer.
 
 interface IndexHolder {
   index?: CorpusIndex;
@@ -80,7 +82,7 @@ export async function getCorpusIndex({ allowStale = false }: { allowStale?: bool
   const signature = await readSearchSignature();
   if (holder.index?.signature === signature) return holder.index;
   const fresh = rebuild(signature);
-  if (allowStale && holder.index) {
+  if (allowStale && holder.index && withdrawalsOf(holder.index.signature) === withdrawalsOf(signature)) {
     fresh.catch((error: unknown) => console.error("[search] index rebuild failed", error));
     return holder.index;
   }

@@ -1,6 +1,7 @@
 import "server-only";
-import { QueryTypes } from "sequelize";
+import { QueryTypes, type Transaction } from "sequelize";
 import { db } from "@/lib/db";
+import { recordEvent } from "@/lib/db/audit";
 import type { CslName } from "@/models/paper";
 
 // The reads behind the search index (lib/search/corpus-index.ts): every comparison with what Explore
@@ -117,6 +118,29 @@ export async function readSearchSource(): Promise<SearchSource> {
  * writes one audit event per batch). Portable standard SQL (scalar subqueries, COUNT/MAX), no
  * dialect-specific syntax; table and column names are quoted by Sequelize for the running dialect.
  */
+/**
+ * Setting that counts verified entries returned to their coders (lib/curation/workflow.ts): the one way
+ * an entry leaves the public corpus. The search index may answer the public from its previous build
+ * only while this count is the one that build saw.
+ */
+const WITHDRAWALS_KEY = "search.withdrawals";
+
+/** Counts one more entry that left the public corpus, inside the transaction that withdraws it. */
+export async function recordWithdrawal(context: { transaction: Transaction; actorId: number }): Promise<void> {
+  const { models } = await db();
+  const row = await models.Setting.findByPk(WITHDRAWALS_KEY, { transaction: context.transaction });
+  const before = row ? { value: row.value } : null;
+  const value = { count: Number((row?.value as { count?: number } | undefined)?.count ?? 0) + 1 };
+  if (row) await row.update({ value }, { transaction: context.transaction });
+  else await models.Setting.create({ key: WITHDRAWALS_KEY, value }, { transaction: context.transaction });
+  await recordEvent({ entity: "Setting", entityId: WITHDRAWALS_KEY, action: "update", before, after: { value } }, context);
+}
+
+/** The withdrawal count a signature of readSearchSignature carries. */
+export function withdrawalsOf(signature: string): string {
+  return signature.slice(0, signature.indexOf("|"));
+}
+
 export async function readSearchSignature(): Promise<string> {
   const { sequelize, models } = await db();
   const q = (name: string) => sequelize.getQueryInterface().quoteIdentifier(name);
@@ -124,6 +148,8 @@ export async function readSearchSignature(): Promise<string> {
   // Each part is an index lookup (primary keys, and the updated_at indexes of migration 0005) or a
   // COUNT over a narrow index; together well under a millisecond at 100 000 comparisons.
   const parts: [string, string][] = [
+    // first, so that lib/search can tell whether an entry left the public corpus (withdrawalsOf)
+    ["withdrawals", `SELECT ${q("value")} FROM ${table(models.Setting)} WHERE ${q("key")} = ${sequelize.escape(WITHDRAWALS_KEY)}`],
     ["audit", `SELECT MAX(${q("id")}) FROM ${table(models.AuditEvent)}`],
     ["papers", `SELECT COUNT(*) FROM ${table(models.Paper)}`],
     ["paperUpdated", `SELECT MAX(${q("updated_at")}) FROM ${table(models.Paper)}`],

@@ -155,4 +155,18 @@ describe("GET /api/comparisons", () => {
     expect(seen.at(-1)).toBe(before + count);
     expect(seen.every((total) => total === before || total === before + count)).toBe(true);
   });
+
+  it("never answers the public from an index that still holds a verified entry returned for a correction", async () => {
+    const { models } = database;
+    const { returnEntry } = await import("@/lib/curation/workflow");
+    const before = (await get("")).body.total as number; // the public's index is built and current
+    const paper = await models.Paper.findOne({ where: { state: "verified" }, include: [{ model: models.Comparison, as: "comparisons", attributes: ["id"], required: true }] });
+    const ids = new Set((await models.Comparison.findAll({ where: { paperId: paper!.id }, attributes: ["id"], raw: true })).map((row) => row.id));
+    const curator = await models.User.findOne({ where: { role: "curator", status: "active" } });
+    await returnEntry({ paperId: paper!.id, comment: "An erratum changes Table 3.", actor: { id: curator!.id, role: "curator" } });
+    // the very next public answer, with no wait for a rebuild
+    const { body } = await get("?per_page=200");
+    expect(body.total).toBe(before - ids.size);
+    expect(body.items.filter((item: { id: number }) => ids.has(item.id))).toEqual([]);
+  });
 });
