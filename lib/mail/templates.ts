@@ -106,7 +106,7 @@ export function passwordReset(input: { name: string; resetUrl: string; expiresIn
 export function passwordChanged(input: { name: string; resetUrl: string }): MailContent {
   return compose("Your Fitledger password was changed", [
     `Hello ${input.name},`,
-    "the password of your account has just been changed. If that was you, there is nothing to do.",
+    "the password of your account has just been changed, and wherever else you were signed in has been signed out. If that was you, there is nothing to do.",
     "If it was not you, choose a new password at once and tell an admin.",
     { link: input.resetUrl, label: "Choose a new password" },
   ]);

@@ -54,6 +54,11 @@ describe("the templates", () => {
     expect(mail.html).toContain("Measurement invariance of the &lt;i&gt;Big Five&lt;/i&gt;");
   });
 
+  it("a password change says that the other sessions were signed out", () => {
+    const content = templates.passwordChanged({ name: "Ana", resetUrl: "https://fitledger.test/reset" });
+    expect(content.text).toContain("wherever else you were signed in has been signed out");
+  });
+
   it("every template goes through nodemailer as a two-part message", async () => {
     const transport = nodemailer.createTransport({ jsonTransport: true });
     const samples = [
