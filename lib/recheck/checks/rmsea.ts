@@ -64,6 +64,82 @@ function rmseaOf(stat: number, df: number, n: number, gFactor: number): number {
   return excess > 0 ? Math.sqrt(excess / (df * n)) * gFactor : 0;
 }
 
+/** Robust RMSEA point estimate (Brosseau-Liard, Savalei & Li 2012): √(max(0, (χ² − c·df)/(N·df))) · g. */
+function robustRmseaOf(chisq: number, c: number, df: number, n: number, gFactor: number): number {
+  const excess = chisq - c * df;
+  return excess > 0 ? Math.sqrt(excess / (df * n)) * gFactor : 0;
+}
+
+/**
+ * The sample sizes and group factors every family of conventions is tried with, and the list being
+ * built. The families are module-level functions rather than closures in rmseaConventions: under tsx
+ * (the engine benchmark) every closure created at run time is also named (esbuild's keepNames).
+ */
+interface ConventionGrid {
+  sizes: Array<[number, string]>;
+  gFactors: Array<[number, string]>;
+  df: number;
+  conventions: RmseaConvention[];
+}
+
+function addPlain(grid: ConventionGrid, stat: Interval, mid: number, statName: string): void {
+  const { df } = grid;
+  for (const [size, sizeName] of grid.sizes) {
+    if (!(size > 0)) continue;
+    for (const [g, gName] of grid.gFactors) {
+      const k = (size * df) / (g * g);
+      grid.conventions.push({
+        name: `${statName}, ${sizeName}${gName}`,
+        point: { lo: rmseaOf(stat.lo, df, size, g), hi: rmseaOf(stat.hi, df, size, g) },
+        high: { x: stat.hi, df, k },
+        low: { x: stat.lo, df, k },
+        mid: { x: mid, df, k },
+      });
+    }
+  }
+}
+
+function addRobustVariants(grid: ConventionGrid, inputs: RmseaInputs): void {
+  const { chisq, scaled, scaling } = inputs;
+  const { df } = grid;
+  if (scaled !== null) addPlain(grid, scaled, inputs.scaledValue ?? (scaled.lo + scaled.hi) / 2, "scaled χ²");
+  if (chisq !== null && scaling !== null) {
+    // lavaan's scaled interval: ML χ² against a noncentral χ² with c·df degrees of freedom, bound
+    // √(λ/(N·c·df)); its point estimate equals the naive scaled one.
+    const cMid = inputs.scalingValue ?? (scaling.lo + scaling.hi) / 2;
+    for (const [size, sizeName] of grid.sizes) {
+      if (!(size > 0)) continue;
+      for (const [g, gName] of grid.gFactors) {
+        grid.conventions.push({
+          name: `ML χ² with c·df, ${sizeName}${gName}`,
+          point: { lo: rmseaOf(chisq.lo / scaling.hi, df, size, g), hi: rmseaOf(chisq.hi / scaling.lo, df, size, g) },
+          high: { x: chisq.hi, df: scaling.lo * df, k: (size * scaling.lo * df) / (g * g) },
+          low: { x: chisq.lo, df: scaling.hi * df, k: (size * scaling.hi * df) / (g * g) },
+          mid: { x: inputs.chisqValue ?? chisq.lo, df: cMid * df, k: (size * cMid * df) / (g * g) },
+        });
+      }
+    }
+  }
+  if (scaled !== null && scaling !== null && chisq !== null) {
+    // Robust RMSEA (Brosseau-Liard, Savalei & Li 2012); its interval comes from the scaled χ² and is
+    // scaled back by c: bound = √(c·λ/(N·df)), so λ = bound² · N·df / c. Each input is taken at the
+    // end that widens the result: an outer enclosure, since c and the scaled χ² are not independent.
+    const cMid = inputs.scalingValue ?? (scaling.lo + scaling.hi) / 2;
+    for (const [size, sizeName] of grid.sizes) {
+      if (!(size > 0)) continue;
+      for (const [g, gName] of grid.gFactors) {
+        grid.conventions.push({
+          name: `robust (Brosseau-Liard et al. 2012), ${sizeName}${gName}`,
+          point: { lo: robustRmseaOf(chisq.lo, scaling.hi, df, size, g), hi: robustRmseaOf(chisq.hi, scaling.lo, df, size, g) },
+          high: { x: scaled.hi, df, k: (size * df) / (g * g * scaling.hi) },
+          low: { x: scaled.lo, df, k: (size * df) / (g * g * scaling.lo) },
+          mid: { x: inputs.scaledValue ?? scaled.lo, df, k: (size * df) / (g * g * cMid) },
+        });
+      }
+    }
+  }
+}
+
 /** The conventions to try, most likely first (scaled ones first for robust estimators). */
 export function rmseaConventions(inputs: RmseaInputs): RmseaConvention[] {
   const { n, groups, df, chisq, scaled, scaling } = inputs;
@@ -71,76 +147,15 @@ export function rmseaConventions(inputs: RmseaInputs): RmseaConvention[] {
   if (groups > 1) sizes.push([n - groups, "N − G"]);
   if (n - 1 > 0) sizes.push([n - 1, "N − 1"]);
   const gFactors: Array<[number, string]> = groups > 1 ? [[Math.sqrt(groups), ", ×√G"], [1, ", without √G"]] : [[1, ""]];
-  const conventions: RmseaConvention[] = [];
-
-  const addPlain = (stat: Interval, mid: number, statName: string) => {
-    for (const [size, sizeName] of sizes) {
-      if (!(size > 0)) continue;
-      for (const [g, gName] of gFactors) {
-        const k = (size * df) / (g * g);
-        conventions.push({
-          name: `${statName}, ${sizeName}${gName}`,
-          point: { lo: rmseaOf(stat.lo, df, size, g), hi: rmseaOf(stat.hi, df, size, g) },
-          high: { x: stat.hi, df, k },
-          low: { x: stat.lo, df, k },
-          mid: { x: mid, df, k },
-        });
-      }
-    }
-  };
-
-  const addRobustVariants = () => {
-    if (scaled !== null) addPlain(scaled, inputs.scaledValue ?? (scaled.lo + scaled.hi) / 2, "scaled χ²");
-    if (chisq !== null && scaling !== null) {
-      // lavaan's scaled interval: ML χ² against a noncentral χ² with c·df degrees of freedom, bound
-      // √(λ/(N·c·df)); its point estimate equals the naive scaled one.
-      const cMid = inputs.scalingValue ?? (scaling.lo + scaling.hi) / 2;
-      for (const [size, sizeName] of sizes) {
-        if (!(size > 0)) continue;
-        for (const [g, gName] of gFactors) {
-          const point = (x: number, c: number) => rmseaOf(x / c, df, size, g);
-          conventions.push({
-            name: `ML χ² with c·df, ${sizeName}${gName}`,
-            point: { lo: point(chisq.lo, scaling.hi), hi: point(chisq.hi, scaling.lo) },
-            high: { x: chisq.hi, df: scaling.lo * df, k: (size * scaling.lo * df) / (g * g) },
-            low: { x: chisq.lo, df: scaling.hi * df, k: (size * scaling.hi * df) / (g * g) },
-            mid: { x: inputs.chisqValue ?? chisq.lo, df: cMid * df, k: (size * cMid * df) / (g * g) },
-          });
-        }
-      }
-    }
-    if (scaled !== null && scaling !== null && chisq !== null) {
-      // Robust RMSEA (Brosseau-Liard, Savalei & Li 2012); its interval comes from the scaled χ² and is
-      // scaled back by c: bound = √(c·λ/(N·df)), so λ = bound² · N·df / c. Each input is taken at the
-      // end that widens the result: an outer enclosure, since c and the scaled χ² are not independent.
-      const cMid = inputs.scalingValue ?? (scaling.lo + scaling.hi) / 2;
-      for (const [size, sizeName] of sizes) {
-        if (!(size > 0)) continue;
-        for (const [g, gName] of gFactors) {
-          const point = (x: number, c: number) => {
-            const excess = x - c * df;
-            return excess > 0 ? Math.sqrt(excess / (df * size)) * g : 0;
-          };
-          conventions.push({
-            name: `robust (Brosseau-Liard et al. 2012), ${sizeName}${gName}`,
-            point: { lo: point(chisq.lo, scaling.hi), hi: point(chisq.hi, scaling.lo) },
-            high: { x: scaled.hi, df, k: (size * df) / (g * g * scaling.hi) },
-            low: { x: scaled.lo, df, k: (size * df) / (g * g * scaling.lo) },
-            mid: { x: inputs.scaledValue ?? scaled.lo, df, k: (size * df) / (g * g * cMid) },
-          });
-        }
-      }
-    }
-  };
-
+  const grid: ConventionGrid = { sizes, gFactors, df, conventions: [] };
   if (inputs.robust && (scaled !== null || scaling !== null)) {
-    addRobustVariants();
-    if (chisq !== null) addPlain(chisq, inputs.chisqValue ?? chisq.lo, "ML χ²");
+    addRobustVariants(grid, inputs);
+    if (chisq !== null) addPlain(grid, chisq, inputs.chisqValue ?? chisq.lo, "ML χ²");
   } else if (chisq !== null) {
-    addPlain(chisq, inputs.chisqValue ?? chisq.lo, "ML χ²");
-    if (inputs.robust) addRobustVariants();
+    addPlain(grid, chisq, inputs.chisqValue ?? chisq.lo, "ML χ²");
+    if (inputs.robust) addRobustVariants(grid, inputs);
   }
-  return conventions;
+  return grid.conventions;
 }
 
 /**
