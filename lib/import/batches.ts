@@ -195,8 +195,8 @@ export async function claimCommit(batchId: number, uploaderId: number): Promise<
 /** The commit of a claimed batch: every accepted row in one transaction, the outcome recorded on the batch. */
 export async function commitClaimed(claim: CommitClaim): Promise<CommitResult | null> {
   const { batchId, uploaderId, dryRun, progress } = claim;
-  const { sequelize } = await db();
   try {
+    const { sequelize } = await db();
     const settings = await readRecheckSettings();
     // IMMEDIATE: take the write lock now, so the ids counted from max(id) stay free until the commit
     const result = await sequelize.transaction({ type: Transaction.TYPES.IMMEDIATE }, async (transaction) => {
