@@ -179,30 +179,29 @@ describe("the upload route", () => {
 });
 
 describe("a commit that fails part-way", () => {
-  it("leaves the database exactly as it was and says so on the batch", async () => {
-    // a real write failure inside the transaction: the database refuses the 3rd comparison's insert
+  /**
+   * Imports `labels` as comparisons of one new paper while the database refuses any comparison labelled
+   * "Boom" (a real write failure inside the transaction), and checks that nothing of it stayed.
+   */
+  async function importWithRefusedRow(doi: string, labels: string[]) {
     await database.sequelize.query("CREATE TRIGGER refuse_boom BEFORE INSERT ON comparisons WHEN NEW.label = 'Boom' BEGIN SELECT RAISE(ABORT, 'forced failure'); END");
     const before = [...(await stored()), await AuditEvent.count()];
-    const rows = ["C1", "C2", "Boom", "C4"].map((label, i) => `10.5555/bad-input.5,A paper that fails,S${i},300,${label},lrt,9.20,2,A,40.10,26,B,30.90,24`);
+    const rows = labels.map((label, i) => `${doi},A paper that fails,S${i},300,${label},lrt,9.20,2,A,40.10,26,B,30.90,24`);
     const batch = await importSheet(coder, [HEADER, ...rows].join("\n"));
     await database.sequelize.query("DROP TRIGGER refuse_boom");
     expect(batch.status).toBe("failed");
     expect(batch.failure).toMatch(/rolled back: nothing of this sheet was stored/);
     expect([...(await stored()), await AuditEvent.count()]).toEqual(before);
-    expect(await Paper.count({ where: { doi: "10.5555/bad-input.5" } })).toBe(0);
+    expect(await Paper.count({ where: { doi } })).toBe(0);
+  }
+
+  it("leaves the database exactly as it was and says so on the batch", async () => {
+    await importWithRefusedRow("10.5555/bad-input.5", ["C1", "C2", "Boom", "C4"]);
   });
 
   it("rolls back a failure in a batch written while the next rows are prepared", async () => {
     // 3 000 rows write in three batches; the second holds row 1 500, whose comparison the database refuses
     // while the importer already plans the rows after it
-    await database.sequelize.query("CREATE TRIGGER refuse_boom BEFORE INSERT ON comparisons WHEN NEW.label = 'Boom' BEGIN SELECT RAISE(ABORT, 'forced failure'); END");
-    const before = [...(await stored()), await AuditEvent.count()];
-    const rows = Array.from({ length: 3000 }, (_, i) => `10.5555/bad-input.6,A long paper that fails,S${i},300,${i === 1499 ? "Boom" : `C${i}`},lrt,9.20,2,A,40.10,26,B,30.90,24`);
-    const batch = await importSheet(coder, [HEADER, ...rows].join("\n"));
-    await database.sequelize.query("DROP TRIGGER refuse_boom");
-    expect(batch.status).toBe("failed");
-    expect(batch.failure).toMatch(/rolled back: nothing of this sheet was stored/);
-    expect([...(await stored()), await AuditEvent.count()]).toEqual(before);
-    expect(await Paper.count({ where: { doi: "10.5555/bad-input.6" } })).toBe(0);
+    await importWithRefusedRow("10.5555/bad-input.6", Array.from({ length: 3000 }, (_, i) => (i === 1499 ? "Boom" : `C${i}`)));
   });
 });
