@@ -35,11 +35,17 @@ function printed(values: Row): Row {
   for (const key in values) {
     const value = values[key];
     if (value === null || value === undefined) continue;
-    if (typeof value === "number" && typeof values[`${key}Text`] === "string") continue;
+    if (typeof value === "number") {
+      const twin = TEXT_TWIN.get(key);
+      if (twin !== undefined && typeof values[twin] === "string") continue;
+    }
     kept[key] = value;
   }
   return kept;
 }
+
+/** Each parsed attribute and its printed twin ("chisq" → "chisqText"), built once, not per value. */
+const TEXT_TWIN = new Map<string, string>(["alpha", ...MODEL_FIGURES, ...COMPARISON_FIGURES].map((figure) => [figure, textAttribute(figure)]));
 
 export interface WriteTotals {
   papersCreated: number;
