@@ -6,6 +6,7 @@ import type { Severity } from "@/lib/recheck/types";
 import { COMPARISON_FIGURES, MODEL_FIGURES, textAttribute, type ComparisonFigure, type ModelFigure } from "@/models/figures";
 import type { CslName, EntryState } from "@/models/paper";
 import type { Verdict } from "@/models/flag-disposition";
+import type { PaperColumns } from "@/lib/curation/metadata";
 
 // One read of a paper with everything its page and GET /api/papers/[id] show: metadata, samples,
 // models, comparisons, findings with their catalogue explanation and disposition, and who coded and
@@ -71,18 +72,9 @@ export interface FindingView {
   disposition: DispositionView | null;
 }
 
-export interface PaperView {
+/** A paper as its pages show it: its metadata columns (the same as the form writes) and its coding. */
+export interface PaperView extends PaperColumns {
   id: number;
-  doi: string | null;
-  ref: string | null;
-  title: string;
-  authors: CslName[];
-  journal: string | null;
-  year: number | null;
-  volume: string | null;
-  issue: string | null;
-  pages: string | null;
-  field: string | null;
   csl: Record<string, unknown> | null;
   state: EntryState;
   createdBy: number;
