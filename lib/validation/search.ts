@@ -159,6 +159,13 @@ export function toFilters(value: z.output<typeof searchFiltersSchema>): SearchFi
 }
 
 /** Reads the filters and, when asked, paging from a URL query; unknown parameters are problems. */
+/** A page's searchParams (Next.js: a value, a list for a repeated key, or undefined) as URLSearchParams. */
+export function searchParamsOf(record: Record<string, string | string[] | undefined>): URLSearchParams {
+  const params = new URLSearchParams();
+  for (const [key, value] of Object.entries(record)) for (const item of Array.isArray(value) ? value : value === undefined ? [] : [value]) params.append(key, item);
+  return params;
+}
+
 export function parseSearchQuery(params: URLSearchParams, options: { paging?: boolean; extra?: readonly string[] } = {}): Parsed<{ filters: SearchFilters; paging: Paging; rest: Record<string, string> }> {
   const pagingKeys = options.paging ? ["page", "per_page", "sort"] : [];
   const { filters: raw, rest, unknown } = readQuery(params, [...pagingKeys, ...(options.extra ?? [])]);

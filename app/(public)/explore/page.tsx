@@ -9,22 +9,16 @@ import { hasRole } from "@/lib/auth/roles";
 import { isAppError } from "@/lib/errors";
 import { searchComparisons } from "@/lib/search";
 import { scopeForReader } from "@/lib/search/scope";
-import { filtersToQuery, parseSearchQuery } from "@/lib/validation/search";
+import { filtersToQuery, parseSearchQuery, searchParamsOf } from "@/lib/validation/search";
 
 export const metadata: Metadata = { title: "Explore" };
 export const dynamic = "force-dynamic";
 
 type SearchParams = Promise<Record<string, string | string[] | undefined>>;
 
-function toParams(record: Record<string, string | string[] | undefined>): URLSearchParams {
-  const params = new URLSearchParams();
-  for (const [key, value] of Object.entries(record)) for (const item of Array.isArray(value) ? value : value === undefined ? [] : [value]) params.append(key, item);
-  return params;
-}
-
 /** The first page of results for this address, rendered on the server; the client takes over from here. */
 export default async function ExploreRoute({ searchParams }: { searchParams: SearchParams }) {
-  const [params, user] = await Promise.all([searchParams.then(toParams), getCurrentUser()]);
+  const [params, user] = await Promise.all([searchParams.then(searchParamsOf), getCurrentUser()]);
   const parsed = parseSearchQuery(params, { paging: true, extra: ["cols"] });
   let initial: ExplorePage | null = null;
   let initialKey = "";

@@ -15,18 +15,12 @@ import { scopeForReader } from "@/lib/search/scope";
 import { formatProportion, formatShareOnly } from "@/lib/stats/format";
 import type { GroupPrevalence } from "@/lib/stats/prevalence";
 import { codeTable, groupTable, trendTable, type FigureTable } from "@/lib/stats/tables";
-import { filtersToQuery, hasAnyFilter, parseSearchQuery } from "@/lib/validation/search";
+import { filtersToQuery, hasAnyFilter, parseSearchQuery, searchParamsOf } from "@/lib/validation/search";
 
 export const metadata: Metadata = { title: "Insights" };
 export const dynamic = "force-dynamic";
 
 type SearchParams = Promise<Record<string, string | string[] | undefined>>;
-
-function toParams(record: Record<string, string | string[] | undefined>): URLSearchParams {
-  const params = new URLSearchParams();
-  for (const [key, value] of Object.entries(record)) for (const item of Array.isArray(value) ? value : value === undefined ? [] : [value]) params.append(key, item);
-  return params;
-}
 
 const day = (iso: string | null) => (iso ? iso.slice(0, 10) : "–");
 
@@ -41,7 +35,7 @@ function groupBars(groups: GroupPrevalence[], label: (value: string | number) =>
 }
 
 export default async function InsightsPage({ searchParams }: { searchParams: SearchParams }) {
-  const [params, user] = await Promise.all([searchParams.then(toParams), getCurrentUser()]);
+  const [params, user] = await Promise.all([searchParams.then(searchParamsOf), getCurrentUser()]);
   const parsed = parseSearchQuery(params, { extra: ["trend"] });
   if (!parsed.ok) {
     return (

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { EMPTY_FILTERS, filtersToQuery, parseSearchQuery, saveSearchSchema } from "@/lib/validation/search";
+import { EMPTY_FILTERS, filtersToQuery, parseSearchQuery, saveSearchSchema, searchParamsOf } from "@/lib/validation/search";
 
 const parse = (query: string, paging = true) => parseSearchQuery(new URLSearchParams(query), { paging });
 
@@ -42,5 +42,14 @@ describe("search filters in the URL", () => {
     expect(saved.success).toBe(true);
     expect(saved.data).toEqual({ name: "Just-identified", query: "code=just-identified-model&sort=title&cols=year", alerts: true });
     expect(saveSearchSchema.safeParse({ name: "x", query: "bogus=1" }).success).toBe(false);
+  });
+});
+
+describe("searchParamsOf", () => {
+  it("turns a page's searchParams into URLSearchParams, repeated keys in order, undefined left out", () => {
+    const params = searchParamsOf({ code: ["zero-df-difference", "halved-p"], q: "invariance", page: undefined });
+    expect(params.getAll("code")).toEqual(["zero-df-difference", "halved-p"]);
+    expect(params.get("q")).toBe("invariance");
+    expect(params.has("page")).toBe(false);
   });
 });
