@@ -88,16 +88,35 @@ export async function tuneSqlite(sequelize: Sequelize): Promise<void> {
 }
 
 /**
- * Runs a statement that returns no rows (a bulk INSERT of a few megabytes) on the transaction's own SQLite
- * connection, in order with the statements Sequelize runs there. Sequelize's query() lower-cases the
- * whole SQL text two or three times to classify it (abstract/query.js isShowOrDescribeQuery and others):
- * for the ~250 MB of SQL a 100 000-row import writes, that is most of a gigabyte of garbage strings.
+ * Runs statements that return no rows (bulk INSERTs of a few megabytes each) on the transaction's own
+ * SQLite connection, in order with the statements Sequelize runs there, and settles once every one has
+ * ended (with the first failure, if any): the caller's transaction never ends while one still runs.
+ * They are queued together, so SQLite's thread runs them back to back while this thread prepares the
+ * next ones; awaiting each in turn left that thread idle until this one next yielded.
+ * Sequelize's query() is bypassed because it lower-cases the whole SQL text two or three times to
+ * classify it (abstract/query.js isShowOrDescribeQuery and others): for the ~250 MB of SQL a
+ * 100 000-row import writes, that is most of a gigabyte of garbage strings.
  * Returns false when the database is not SQLite (the caller then goes through sequelize.query).
  */
-export async function runStatement(sequelize: Sequelize, transaction: Transaction, sql: string): Promise<boolean> {
+export async function runStatements(sequelize: Sequelize, transaction: Transaction, statements: readonly string[]): Promise<boolean> {
   if (sequelize.getDialect() !== "sqlite") return false;
   const connection = (transaction as unknown as { connection?: RawConnection }).connection;
   if (!connection) return false;
-  await new Promise<void>((resolve, reject) => connection.serialize(() => connection.run(sql, (error) => (error ? reject(error) : resolve()))));
+  if (statements.length === 0) return true;
+  await new Promise<void>((resolve, reject) => {
+    let pending = statements.length;
+    let failure: Error | null = null;
+    const ended = (error: Error | null) => {
+      failure = failure ?? error;
+      pending -= 1;
+      if (pending === 0) {
+        if (failure) reject(failure);
+        else resolve();
+      }
+    };
+    connection.serialize(() => {
+      for (const sql of statements) connection.run(sql, ended);
+    });
+  });
   return true;
 }

@@ -5,8 +5,8 @@
 // rewrites each $n placeholder of the statement in turn.) Values are escaped by Sequelize's own escape. The SQL is the portable
 // subset both SQLite (≥ 3.24) and PostgreSQL accept; column names come from the models, values are
 // converted the way Sequelize stores them (JSON as text, dates as UTC timestamps).
-import { DataTypes, QueryTypes, type Model, type ModelStatic, type Transaction } from "sequelize";
-import { runStatement } from "@/lib/db/sqlite";
+import { DataTypes, QueryTypes, type Model, type ModelStatic, type Sequelize, type Transaction } from "sequelize";
+import { runStatements } from "@/lib/db/sqlite";
 
 /** Values per statement, to keep each statement a few megabytes at most. */
 const MAX_VALUES = 30_000;
@@ -53,12 +53,20 @@ function literal(value: unknown): string {
   return escapeOther(value);
 }
 
+export interface BulkOptions {
+  transaction: Transaction;
+  now: Date;
+  /** attributes overwritten when a row's id exists (an upsert); without it, a plain insert */
+  update?: readonly string[];
+}
+
 /**
- * Inserts `rows` (all with the same attributes) into the model's table. With `update`, a row whose id
- * exists has those attributes overwritten instead. Timestamps are filled when the model keeps them.
+ * The statements that insert `rows` (all with the same attributes) into the model's table. With
+ * `update`, a row whose id exists has those attributes overwritten instead. Timestamps are filled when
+ * the model keeps them.
  */
-export async function bulkWrite(model: ModelStatic<Model>, rows: readonly Row[], options: { transaction: Transaction; now: Date; update?: readonly string[] }): Promise<void> {
-  if (rows.length === 0) return;
+export function bulkStatements(model: ModelStatic<Model>, rows: readonly Row[], options: BulkOptions): string[] {
+  if (rows.length === 0) return [];
   const sequelize = model.sequelize!;
   escapeOther = (value) => sequelize.escape(value as string);
   const quote = (name: string) => sequelize.getQueryInterface().quoteIdentifier(name);
@@ -76,6 +84,7 @@ export async function bulkWrite(model: ModelStatic<Model>, rows: readonly Row[],
   const perStatement = Math.max(1, Math.floor(MAX_VALUES / columns.length));
   const stamped = columns.map((column) => timestamps.includes(column.attribute));
   const escapedStamp = literal(stamp);
+  const statements: string[] = [];
   for (let at = 0; at < rows.length; at += perStatement) {
     const part = rows.slice(at, at + perStatement);
     const tuples: string[] = new Array(part.length);
@@ -88,7 +97,22 @@ export async function bulkWrite(model: ModelStatic<Model>, rows: readonly Row[],
       }
       tuples[r] = tuple + ")";
     }
-    const sql = head + tuples.join(",") + tail;
-    if (!(await runStatement(sequelize, options.transaction, sql))) await sequelize.query(sql, { transaction: options.transaction, type: QueryTypes.INSERT });
+    statements.push(head + tuples.join(",") + tail);
   }
+  return statements;
+}
+
+/**
+ * Runs statements from bulkStatements in order inside the transaction. On SQLite they are queued
+ * together (lib/db/sqlite.ts runStatements), and this settles once all have ended.
+ */
+export async function runBulk(sequelize: Sequelize, transaction: Transaction, statements: readonly string[]): Promise<void> {
+  if (await runStatements(sequelize, transaction, statements)) return;
+  for (const sql of statements) await sequelize.query(sql, { transaction, type: QueryTypes.INSERT });
+}
+
+/** Inserts (or, with `update`, upserts) `rows` into the model's table: bulkStatements, then runBulk. */
+export async function bulkWrite(model: ModelStatic<Model>, rows: readonly Row[], options: BulkOptions): Promise<void> {
+  if (rows.length === 0) return;
+  await runBulk(model.sequelize!, options.transaction, bulkStatements(model, rows, options));
 }

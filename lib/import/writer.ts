@@ -11,7 +11,7 @@ import { AuditEvent, Comparison, DoiLookup, FitModel, Flag, Paper, Sample } from
 import { COMPARISON_FIGURES, MODEL_FIGURES, textAttribute } from "@/models/figures";
 import { comparisonRecord, modelRecord, storedComparisonInput, type RowEntry } from "./entry";
 import type { PlannedPaper, RowPlan } from "./planner";
-import { bulkWrite } from "./bulk";
+import { bulkStatements, bulkWrite, runBulk } from "./bulk";
 
 type Row = Record<string, unknown>;
 
@@ -190,40 +190,35 @@ export class ImportWriter {
     await this.settle().catch(() => undefined);
   }
 
-  /** Writes one set of buffers: parents before children, so every foreign key already exists. */
+  /**
+   * Writes one set of buffers: parents before children, so every foreign key already exists. Every
+   * statement is built first and then queued at once, so SQLite writes them back to back on its thread.
+   */
   private async write(buffers: { papers: Row[]; samples: Row[]; models: Row[]; comparisons: Row[]; flags: Row[]; audits: AuditRecord[] }): Promise<void> {
-    const write = { transaction: this.options.transaction, now: this.now };
+    const { transaction } = this.options;
+    const write = { transaction, now: this.now };
     const { papers, samples, models, comparisons, flags, audits } = buffers;
-    if (papers.length > 0) {
-      await bulkWrite(Paper, papers, write);
-      this.totals.papersCreated += papers.length;
-    }
-    if (samples.length > 0) {
-      await bulkWrite(Sample, samples, { ...write, update: SAMPLE_UPDATES });
-      this.totals.samplesWritten += samples.length;
-    }
-    if (models.length > 0) {
-      await bulkWrite(FitModel, models, { ...write, update: MODEL_UPDATES });
-      this.totals.modelsWritten += models.length;
-    }
-    if (comparisons.length > 0) {
-      await bulkWrite(Comparison, comparisons, { ...write, update: COMPARISON_UPDATES });
-      this.totals.comparisonsWritten += comparisons.length;
-    }
-    if (flags.length > 0) {
-      await bulkWrite(Flag, flags, write);
-      this.totals.flagsWritten += flags.length;
-    }
-    if (audits.length > 0) {
+    const actorId = this.options.actorId;
+    const statements = [
+      ...bulkStatements(Paper, papers, write),
+      ...bulkStatements(Sample, samples, { ...write, update: SAMPLE_UPDATES }),
+      ...bulkStatements(FitModel, models, { ...write, update: MODEL_UPDATES }),
+      ...bulkStatements(Comparison, comparisons, { ...write, update: COMPARISON_UPDATES }),
+      ...bulkStatements(Flag, flags, write),
       // the rows lib/db/audit.ts recordEvents writes, in one statement per few thousand
-      const actorId = this.options.actorId;
-      await bulkWrite(
+      ...bulkStatements(
         AuditEvent,
         audits.map((a) => ({ actorId, entity: a.entity, entityId: String(a.entityId), action: a.action, before: a.before ?? null, after: a.after ?? null })),
         write,
-      );
-      this.totals.auditEvents += audits.length;
-    }
+      ),
+    ];
+    await runBulk(Paper.sequelize!, transaction, statements);
+    this.totals.papersCreated += papers.length;
+    this.totals.samplesWritten += samples.length;
+    this.totals.modelsWritten += models.length;
+    this.totals.comparisonsWritten += comparisons.length;
+    this.totals.flagsWritten += flags.length;
+    this.totals.auditEvents += audits.length;
   }
 
   /** After the last row: paper metadata, flag rewrites of changed existing papers, DOI lookups. */

@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { QueryTypes } from "sequelize";
+import { runStatements } from "@/lib/db/sqlite";
 import { createTestDatabase, type TestDatabase } from "../../support/test-db";
 
 // Sequelize opens a new SQLite connection for every transaction, and SQLite's connection settings do not
@@ -34,5 +35,19 @@ describe("SQLite connection settings", () => {
     // a second transaction opens (and tunes) a connection of its own
     const again = await database.sequelize.transaction(async (transaction) => settings({ transaction }));
     expect(again.busyTimeout).toBe(10000);
+  });
+
+  it("runs queued statements in order on the transaction's connection and reports the first failure", async () => {
+    await database.sequelize.query("CREATE TABLE queued (n INTEGER NOT NULL)");
+    const seen = await database.sequelize.transaction(async (transaction) => {
+      // the second statement fails (NOT NULL); the third, queued behind it, still runs inside the transaction
+      const outcome = await runStatements(database.sequelize, transaction, ["INSERT INTO queued (n) VALUES (1), (2)", "INSERT INTO queued (n) VALUES (NULL)", "INSERT INTO queued (n) VALUES (3)"]).catch(
+        (error: Error) => error.message,
+      );
+      const rows = await database.sequelize.query<{ n: number }>("SELECT n FROM queued ORDER BY rowid", { type: QueryTypes.SELECT, transaction });
+      return { outcome, rows: rows.map((row) => row.n) };
+    });
+    expect(seen.outcome).toMatch(/NOT NULL constraint failed: queued\.n/);
+    expect(seen.rows).toEqual([1, 2, 3]);
   });
 });
