@@ -261,9 +261,24 @@ function putFigures(target: Record<string, unknown>, texts: FigureTexts, figures
   }
 }
 
+/**
+ * Every key of an object the importer fills key by key (record[key] = …), undefined. The records start as
+ * copies of these: V8 turns a small object literal that then grows by a dozen or more computed keys into
+ * a slow dictionary, and every later read of it, copy of it or SQL built from it pays for that (seen in
+ * the commit's profile); a copy of a complete template keeps one fast shape.
+ */
+function templateOf(keys: readonly string[]): Readonly<Record<string, undefined>> {
+  return Object.fromEntries(keys.map((key) => [key, undefined]));
+}
+const MODEL_RECORD = templateOf(["label", "estimator", "meanStructure", ...MODEL_FIGURES.flatMap((figure, i) => [MODEL_TEXT_ATTRIBUTES[i], figure])]);
+const MODEL_INPUT = templateOf(["label", "estimator", ...MODEL_FIGURES, "meanStructure"]);
+
 /** The stored attributes of a model (printed text and parsed value of each figure). */
 export function modelRecord(values: ModelValues): Record<string, unknown> {
-  const record: Record<string, unknown> = { label: values.label, estimator: values.estimator, meanStructure: values.meanStructure };
+  const record: Record<string, unknown> = { ...MODEL_RECORD };
+  record.label = values.label;
+  record.estimator = values.estimator;
+  record.meanStructure = values.meanStructure;
   putFigures(record, values.texts, MODEL_FIGURES, MODEL_TEXT_ATTRIBUTES);
   return record;
 }
@@ -285,7 +300,9 @@ export function comparisonRecord(values: ComparisonValues): Record<string, unkno
 }
 
 function modelInputOf(values: ModelValues): ModelInput {
-  const input: ModelInput = { label: values.label, estimator: values.estimator ?? undefined };
+  const input: ModelInput = { ...MODEL_INPUT };
+  input.label = values.label;
+  input.estimator = values.estimator ?? undefined;
   const fields = input as Record<string, string | undefined>;
   for (let i = 0; i < MODEL_FIGURES.length; i++) fields[MODEL_FIGURES[i]] = values.texts[i] ?? undefined;
   if (values.meanStructure !== null) input.meanStructure = values.meanStructure ? "yes" : "no";
