@@ -13,6 +13,7 @@ import { createReadStream, createWriteStream, mkdtempSync, rmSync, statSync } fr
 import { once } from "node:events";
 import { availableParallelism, loadavg, tmpdir } from "node:os";
 import { join } from "node:path";
+import { performance } from "node:perf_hooks";
 import { getHeapStatistics } from "node:v8";
 import { sheetHeaderLine, sheetRecordLine, type SheetRecord } from "@/lib/csv";
 import { createDatabase, setDatabase } from "@/lib/db/connection";
@@ -59,14 +60,17 @@ const sampler = setInterval(() => {
 async function timed<T>(name: string, work: () => Promise<T>, rows: number, lines: string[]): Promise<T> {
   const started = performance.now();
   const cpu = process.cpuUsage();
+  const loop = performance.eventLoopUtilization();
   phasePeakRss = process.memoryUsage().rss;
   const result = await work();
   const seconds = (performance.now() - started) / 1000;
   const used = process.cpuUsage(cpu);
+  // the share of the wall time the JavaScript thread was busy; the rest it waited (mostly for SQLite)
+  const busy = performance.eventLoopUtilization(loop).utilization;
   // CPU time of this process (SQLite's worker threads included) beside the wall clock: the machine is shared
   const cpuSeconds = (used.user + used.system) / 1e6;
   lines.push(
-    `${name.padEnd(34)} ${seconds.toFixed(2).padStart(7)} s wall  ${cpuSeconds.toFixed(2).padStart(7)} s CPU  ${Math.round(rows / seconds).toLocaleString("en").padStart(9)} rows/s  rss ${(process.memoryUsage().rss / 2 ** 20).toFixed(0)} MB (phase peak ${(Math.max(phasePeakRss, process.memoryUsage().rss) / 2 ** 20).toFixed(0)} MB)`,
+    `${name.padEnd(34)} ${seconds.toFixed(2).padStart(7)} s wall  ${cpuSeconds.toFixed(2).padStart(7)} s CPU  JS thread busy ${(100 * busy).toFixed(0).padStart(3)} %  ${Math.round(rows / seconds).toLocaleString("en").padStart(9)} rows/s  rss ${(process.memoryUsage().rss / 2 ** 20).toFixed(0)} MB (phase peak ${(Math.max(phasePeakRss, process.memoryUsage().rss) / 2 ** 20).toFixed(0)} MB)`,
   );
   return result;
 }
