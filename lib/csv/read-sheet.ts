@@ -55,11 +55,15 @@ function quoteProblem(error: Papa.ParseError): string {
   return error.message;
 }
 
+/** Turns a data record's cells into what the parser hands on (buildRow's signature). */
+export type RowBuilder<T> = (layout: SheetLayout, cells: string[], row: number, problems: readonly FieldError[]) => T;
+
 /**
  * Push-style core: feed decoded text, get the rows completed so far. Throws SheetError when the sheet
- * as a whole cannot be read (no header, a header the catalogue refuses).
+ * as a whole cannot be read (no header, a header the catalogue refuses). Rows are SheetRows unless
+ * another builder is given (the recheck command hands bare cells to its worker threads).
  */
-export class SheetParser {
+export class SheetParser<T = SheetRow> {
   private pending = "";
   private parser: Papa.Parser | undefined;
   private layout: SheetLayout | undefined;
@@ -67,7 +71,9 @@ export class SheetParser {
   private records = 0;
   private refusal: SheetError | undefined;
 
-  push(text: string, final: boolean): SheetRow[] {
+  constructor(private readonly build: RowBuilder<T> = buildRow as unknown as RowBuilder<T>) {}
+
+  push(text: string, final: boolean): T[] {
     if (this.refusal) throw this.refusal;
     this.pending = this.pending === "" ? text : this.pending + text;
     if (!this.parser && !this.start(final)) return [];
@@ -82,7 +88,7 @@ export class SheetParser {
       problemsAt.set(error.row, list);
     }
 
-    const rows: SheetRow[] = [];
+    const rows: T[] = [];
     const data = result.data;
     for (let i = 0; i < data.length; i++) {
       const cells = data[i];
@@ -97,7 +103,7 @@ export class SheetParser {
       if (cells.length !== width) {
         (problems ??= []).push({ column: WHOLE_ROW, message: `has ${cells.length} cells but the header has ${width} columns` });
       }
-      rows.push(buildRow(this.layout, cells, this.records, problems ?? NO_PROBLEMS));
+      rows.push(this.build(this.layout, cells, this.records, problems ?? NO_PROBLEMS));
     }
     if (final && !this.layout) throw new SheetError("empty_file", "the file is empty (no header row)");
     if (this.pending.length > MAX_RECORD_CHARS) {
@@ -134,9 +140,9 @@ export class SheetParser {
 }
 
 /** Rows in the batches they were completed in (one batch per input chunk): cheaper for bulk consumers. */
-export async function* readSheetBatches(source: ByteSource): AsyncGenerator<SheetRow[]> {
+export async function* readSheetBatches<T = SheetRow>(source: ByteSource, build?: RowBuilder<T>): AsyncGenerator<T[]> {
   const decoder = new Utf8ChunkDecoder();
-  const parser = new SheetParser();
+  const parser = new SheetParser<T>(build);
   for await (const chunk of source) {
     const rows = parser.push(decoder.decode(chunk), false);
     if (rows.length > 0) yield rows;
