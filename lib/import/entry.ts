@@ -192,8 +192,15 @@ export function readEntry(row: SheetRow): EntryReading {
   };
 }
 
-const NULL_PART = "\u0000";
-const SEPARATOR = "\u0001";
+/**
+ * An empty part and the mark between parts: ASCII's record and unit separators, which printed figures and
+ * labels do not hold. Not NUL: the database builds stored rows' signatures itself (lib/import/existing.ts),
+ * and PostgreSQL's text cannot hold NUL, nor SQLite's string functions treat it as a character.
+ */
+export const SIGNATURE_NULL = "\u001e";
+export const SIGNATURE_SEPARATOR = "\u001f";
+const NULL_PART = SIGNATURE_NULL;
+const SEPARATOR = SIGNATURE_SEPARATOR;
 
 /**
  * A signature as one flat string: cheaper to keep for 100 000 rows than an array, and — unlike the cells,
@@ -207,7 +214,11 @@ export function decodeSignature(encoded: string): (string | null)[] {
   return encoded.split(SEPARATOR).map((part) => (part === NULL_PART ? null : part));
 }
 
-/** What identifies a stored model's coding: estimator, mean structure and every printed figure (a stored row). */
+/**
+ * What identifies a stored model's coding: estimator, mean structure and every printed figure (a stored
+ * row). The importer has the database build it (lib/import/existing.ts signatureSql); this is the
+ * definition that SQL is tested against (tests/integration/import/stored-signatures.test.ts).
+ */
 export function modelSignature(model: { estimator: string | null; meanStructure: boolean | null } & Record<string, unknown>): (string | null)[] {
   const parts: (string | null)[] = [model.estimator ?? null, model.meanStructure === null || model.meanStructure === undefined ? null : model.meanStructure ? "yes" : "no"];
   for (const figure of MODEL_FIGURES) parts.push((model[textAttribute(figure)] as string | null | undefined) ?? null);

@@ -1,11 +1,11 @@
 // What the database already holds for the papers a sheet names, loaded in bulk (a few queries per 500
 // papers, never one per row). Papers come as model instances (their JSON author lists parsed); the many
 // samples, models and comparisons as raw rows, reduced to what identity and change detection need, keyed by the identity keys of DESIGN §5.
-import { Op, type Transaction } from "sequelize";
+import { DataTypes, Op, type Model, type ModelStatic, type Transaction } from "sequelize";
 import { Comparison, FitModel, Paper, Sample } from "@/models";
 import type { EntryState } from "@/models/paper";
 import { COMPARISON_FIGURES, MODEL_FIGURES, textAttribute } from "@/models/figures";
-import { comparisonSignature, encodeSignature, modelSignature } from "./entry";
+import { SIGNATURE_NULL, SIGNATURE_SEPARATOR } from "./entry";
 
 export interface ExistingPaper {
   id: number;
@@ -25,7 +25,7 @@ export interface ExistingSample {
 
 export interface ExistingModel {
   id: number;
-  /** encodeSignature(modelSignature(row)) */
+  /** encodeSignature(modelSignature(row)), built by the database (signatureSql) */
   signature: string;
 }
 
@@ -57,11 +57,31 @@ function chunks<T>(items: readonly T[]): T[][] {
   return out;
 }
 
-const MODEL_ATTRIBUTES = ["id", "sampleId", "label", "estimator", "meanStructure", ...MODEL_FIGURES.map(textAttribute)];
-const COMPARISON_ATTRIBUTES = [
-  "id", "sampleId", "label", "restrictedModelId", "freeModelId", "method", "nested", "alphaText", "location", "preferred", "invarianceClaimed", "notes",
-  ...COMPARISON_FIGURES.map(textAttribute),
-];
+/**
+ * SQL for a stored row's signature: its parts joined by SIGNATURE_SEPARATOR, SIGNATURE_NULL for an empty
+ * one, a boolean as "yes"/"no" — the string encodeSignature(modelSignature(row)) gives, built by the
+ * database (|| and COALESCE: SQLite and PostgreSQL alike). One short string per stored row instead of a
+ * row object of some thirty columns: loading those was most of a re-imported sheet's dry run.
+ */
+function signatureSql(model: ModelStatic<Model>, attributes: readonly string[]) {
+  const sequelize = model.sequelize!;
+  const definitions = model.getAttributes();
+  const empty = sequelize.escape(SIGNATURE_NULL);
+  const parts = attributes.map((attribute) => {
+    const definition = definitions[attribute];
+    if (!definition) throw new Error(`${model.name} has no attribute ${attribute}`);
+    const column = sequelize.getQueryInterface().quoteIdentifier(definition.field ?? attribute);
+    if (definition.type instanceof DataTypes.BOOLEAN) return `CASE WHEN ${column} IS NULL THEN ${empty} WHEN ${column} THEN 'yes' ELSE 'no' END`;
+    return `COALESCE(${column}, ${empty})`;
+  });
+  return sequelize.literal(parts.join(` || ${sequelize.escape(SIGNATURE_SEPARATOR)} || `));
+}
+
+/** modelSignature's parts, in its order. */
+const MODEL_SIGNATURE = ["estimator", "meanStructure", ...MODEL_FIGURES.map(textAttribute)];
+/** comparisonSignature's parts before the two model labels, and after them. */
+const COMPARISON_SIGNATURE_HEAD = ["method", "nested", "alphaText", "location", "preferred", "invarianceClaimed", "notes"];
+const COMPARISON_SIGNATURE_TAIL = COMPARISON_FIGURES.map(textAttribute);
 
 export function emptyExisting(): ExistingState {
   return { paperByDoi: new Map(), paperByRef: new Map(), paperById: new Map(), samples: new Map(), models: new Map(), comparisons: new Map() };
@@ -102,19 +122,31 @@ export async function loadExisting(keys: { dois: Iterable<string>; refs: Iterabl
       sampleLabel.set(sample.id, sample.label);
       state.samples.set(childKey(sample.paperId as number, sample.label), { id: sample.id, n: sample.n, groups: sample.groups, values: sample as unknown as Record<string, unknown> });
     }
-    const models = await FitModel.findAll({ where, attributes: MODEL_ATTRIBUTES, raw: true, transaction });
+    const models = (await FitModel.findAll({
+      where,
+      attributes: ["id", "sampleId", "label", [signatureSql(FitModel, MODEL_SIGNATURE), "signature"]],
+      raw: true,
+      transaction,
+    })) as unknown as Array<{ id: number; sampleId: number; label: string; signature: string }>;
     for (const model of models) {
       modelLabel.set(model.id, model.label);
-      state.models.set(childKey(model.sampleId as number, model.label), { id: model.id, signature: encodeSignature(modelSignature(model as unknown as Parameters<typeof modelSignature>[0])) });
+      state.models.set(childKey(model.sampleId, model.label), { id: model.id, signature: model.signature });
     }
-    const comparisons = await Comparison.findAll({ where, attributes: COMPARISON_ATTRIBUTES, raw: true, transaction });
+    const comparisons = (await Comparison.findAll({
+      where,
+      attributes: [
+        "id", "sampleId", "label", "restrictedModelId", "freeModelId",
+        [signatureSql(Comparison, COMPARISON_SIGNATURE_HEAD), "head"],
+        [signatureSql(Comparison, COMPARISON_SIGNATURE_TAIL), "tail"],
+      ],
+      raw: true,
+      transaction,
+    })) as unknown as Array<{ id: number; sampleId: number; label: string; restrictedModelId: number; freeModelId: number; head: string; tail: string }>;
     for (const comparison of comparisons) {
-      const signature = comparisonSignature(
-        comparison as unknown as Parameters<typeof comparisonSignature>[0],
-        modelLabel.get(comparison.restrictedModelId as number) ?? "",
-        modelLabel.get(comparison.freeModelId as number) ?? "",
-      );
-      state.comparisons.set(childKey(comparison.sampleId as number, comparison.label), { id: comparison.id, signature: encodeSignature(signature) });
+      // comparisonSignature(row, restricted label, free label), encoded
+      const labels = (modelLabel.get(comparison.restrictedModelId) ?? "") + SIGNATURE_SEPARATOR + (modelLabel.get(comparison.freeModelId) ?? "");
+      const signature = comparison.head + SIGNATURE_SEPARATOR + labels + SIGNATURE_SEPARATOR + comparison.tail;
+      state.comparisons.set(childKey(comparison.sampleId, comparison.label), { id: comparison.id, signature });
     }
   }
   return state;
