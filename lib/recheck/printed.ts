@@ -55,8 +55,47 @@ export function readPrintedNumber(raw: string): PrintedNumber | null {
   return scanNumber(raw, start, end);
 }
 
-/** The scanner behind readPrintedNumber, on raw[start, end) (no substring is made in the common case). */
+/**
+ * The scanner behind readPrintedNumber, on raw[start, end) (no substring is made in the common case).
+ * This is the path for what papers nearly always print, a plain decimal of at most 15 digits ("247.57",
+ * "-3.5", ".032"), kept short enough for the optimiser to inline it into its callers; anything else
+ * (an exponent, more digits, a malformed cell) is scanned again from the start by scanNumberInFull,
+ * which gives the same result for the plain decimals too.
+ */
 function scanNumber(raw: string, start: number, end: number): PrintedNumber | null {
+  let i = start;
+  let c = i < end ? raw.charCodeAt(i) : 0;
+  const negative = c === 45 /* - */;
+  if (negative) c = ++i < end ? raw.charCodeAt(i) : 0;
+  let mantissa = 0;
+  let digits = 0;
+  while (c >= 48 && c <= 57) {
+    mantissa = mantissa * 10 + (c - 48);
+    digits++;
+    c = ++i < end ? raw.charCodeAt(i) : 0;
+  }
+  let decimals = 0;
+  if (c === 46 /* . */) {
+    c = ++i < end ? raw.charCodeAt(i) : 0;
+    while (c >= 48 && c <= 57) {
+      mantissa = mantissa * 10 + (c - 48);
+      digits++;
+      decimals++;
+      c = ++i < end ? raw.charCodeAt(i) : 0;
+    }
+  }
+  if (i !== end || digits === 0 || digits > 15) return scanNumberInFull(raw, start, end);
+  // mantissa / 10^k is one correctly rounded IEEE division, i.e. exactly what Number() returns.
+  let value = mantissa / POW10[decimals];
+  if (negative) value = -value;
+  if (value === 0) value = 0; // no negative zero in outputs
+  const half = halfUnit(decimals);
+  const text = start === 0 && end === raw.length ? raw : raw.slice(start, end);
+  return { text, value, lo: value - half, hi: value + half, decimals };
+}
+
+/** Every form readPrintedNumber accepts, on raw[start, end): signs, typographic minus, exponents, long mantissas. */
+function scanNumberInFull(raw: string, start: number, end: number): PrintedNumber | null {
   let i = start;
   let negative = false;
   if (i < end) {

@@ -39,6 +39,25 @@ describe("readPrintedNumber", () => {
     expect(readPrintedNumber("85.3055217699727")?.value).toBe(85.3055217699727);
     expect(readPrintedNumber("0.12345678901234567")?.value).toBe(0.12345678901234567);
   });
+
+  it("reads plain decimals and the other printed forms alike, at every length around 15 digits", () => {
+    // Plain decimals of up to 15 digits take a short path; signs, exponents and longer prints the full one.
+    const texts = ["5.", "-.5", "+5", "+.5", "-0.000", "0.000", "\u22120.50", "-5e0", "1.50E+1", "123456789012345", "1234567890123456", "-12345678.9012345", "-12345678.90123456", "0.000000000000001", "00012.3400", "9.\u00002"];
+    for (const text of texts) {
+      const n = readPrintedNumber(text);
+      const expected = Number(text.replace("\u2212", "-"));
+      if (Number.isNaN(expected)) {
+        expect(n, text).toBeNull();
+        continue;
+      }
+      expect(n?.value, text).toBe(expected === 0 ? 0 : expected);
+      expect(Object.is(n?.value, -0), text).toBe(false);
+      expect(n?.text, text).toBe(text);
+    }
+    expect(readPrintedNumber("-12345678.9012345")?.decimals).toBe(7);
+    expect(readPrintedNumber("1.50E+1")?.decimals).toBe(1);
+    expect(readPrintedNumber("-.5")?.lo).toBe(-0.55);
+  });
 });
 
 describe("readPrintedInteger", () => {
