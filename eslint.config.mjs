@@ -19,9 +19,8 @@ const config = [
     },
   },
   {
-    // lib/cli/demo.ts hands the environment on to the app it starts; tests set up child processes;
-    // the recheck command reads its one setting itself, so that no server setting can stop it.
-    files: ["lib/env.ts", "next.config.mjs", "vitest.config.mts", "tests/**", "lib/cli/demo.ts", "lib/cli/recheck.ts"],
+    // lib/cli/demo.ts hands the environment on to the app it starts; tests set up child processes.
+    files: ["lib/env.ts", "next.config.mjs", "vitest.config.mts", "tests/**", "lib/cli/demo.ts"],
     rules: { "no-restricted-properties": "off" },
   },
 ];

@@ -1,14 +1,12 @@
 // `npm run --silent recheck -- FILE.csv [--format jsonl|csv]` (DESIGN §4.5): rechecks every row of a
 // comparison sheet and writes one result per data row. The file is streamed chunk by chunk and output
 // waits for stdout to drain, so memory stays flat however long the sheet and however slow the reader.
-// Sheets of a few megabytes are rechecked by worker threads, one per core (lib/cli/recheck-pool.ts).
 import { once } from "node:events";
 import { createReadStream } from "node:fs";
 import { stat } from "node:fs/promises";
-import { isSheetError, readSheetBatches } from "@/lib/csv";
+import { checkSheetRow, csvLine, isSheetError, mergeFieldErrors, readSheetBatches, toComparisonInput, type SheetRow } from "@/lib/csv";
+import { recheck } from "@/lib/recheck";
 import { oneLine } from "./one-line";
-import { recordCells, RowPool, serveRows, WorkerFailure, workerCount } from "./recheck-pool";
-import { batchLines, CSV_HEADER, type Format } from "./recheck-rows";
 
 const USAGE = `Usage: npm run --silent recheck -- FILE.csv [--format jsonl|csv]
 
@@ -21,13 +19,11 @@ data row to standard output. Row 1 is the first row after the header.
   --format csv     one line per finding or cell error (a "clean" line for a row with neither)
   -h, --help       show this text
 
-A sheet of 2 MB or more is rechecked on every core (at most four); FITLEDGER_RECHECK_THREADS=N sets
-the number of worker threads instead (0: none).
-
 Exit status: 0 when the file was read (whatever was flagged); 2 when it could not be read as a
 comparison sheet or the command line is wrong; 1 when the results could not be written. Each failure
 is one line on standard error.`;
 
+type Format = "jsonl" | "csv";
 type Command = { help: true } | { help: false; file: string; format: Format };
 
 /** A problem the user can fix: one line on stderr, exit status 2. */
@@ -63,12 +59,10 @@ function parseArguments(args: readonly string[]): Command {
   return { help: false, file, format };
 }
 
-/** The file's size in bytes, or a CommandError saying why it cannot be read. */
-async function checkReadable(file: string): Promise<number> {
+async function checkReadable(file: string): Promise<void> {
   try {
     const info = await stat(file);
     if (info.isDirectory()) throw new CommandError(`${file} is a directory, not a comparison sheet`);
-    return info.size;
   } catch (error) {
     if (error instanceof CommandError) throw error;
     throw new CommandError(fileProblem(file, error));
@@ -83,10 +77,7 @@ function fileProblem(file: string, error: unknown): string {
   return `cannot read ${file}: ${oneLine(error)}`;
 }
 
-/**
- * Text collected into batches and written with backpressure: a pipe that reads slowly slows us down.
- * Bytes (a worker thread's lines, already UTF-8) go out as they come, after the text before them.
- */
+/** Text collected into batches and written with backpressure: a pipe that reads slowly slows us down. */
 class Output {
   private pending = "";
 
@@ -95,12 +86,7 @@ class Output {
     private readonly batchChars = 1 << 16,
   ) {}
 
-  async write(text: string | Uint8Array): Promise<void> {
-    if (typeof text !== "string") {
-      await this.flush();
-      await this.send(text);
-      return;
-    }
+  async write(text: string): Promise<void> {
     this.pending += text;
     if (this.pending.length >= this.batchChars) await this.flush();
   }
@@ -109,16 +95,37 @@ class Output {
     if (this.pending === "") return;
     const text = this.pending;
     this.pending = "";
-    await this.send(text);
-  }
-
-  private async send(chunk: string | Uint8Array): Promise<void> {
     try {
-      if (!this.stream.write(chunk)) await once(this.stream, "drain");
+      if (!this.stream.write(text)) await once(this.stream, "drain");
     } catch (error) {
       throw new OutputError(`cannot write the results: ${oneLine(error)}`);
     }
   }
+}
+
+const CSV_HEADER = csvLine(["row", "comparison", "outcome", "code", "severity", "subject", "column", "message", "engine_version"]);
+
+/** The result lines of one row. The sheet's own checks run first; the engine validates the figures once. */
+function resultLines(row: SheetRow, format: Format): string {
+  const comparison = row.comparison.label ?? null;
+  const sheetErrors = checkSheetRow(row);
+  const outcome = row.problems.length > 0 ? null : recheck(toComparisonInput(row));
+  const errors = outcome && !outcome.ok ? mergeFieldErrors(sheetErrors, outcome.errors) : sheetErrors;
+
+  if (errors.length > 0 || !outcome?.ok) {
+    if (format === "jsonl") return JSON.stringify({ row: row.row, comparison, errors }) + "\n";
+    return errors.map((e) => csvLine([String(row.row), comparison ?? "", "error", "", "", "", e.column, e.message, ""])).join("");
+  }
+
+  const { findings, skipped, recomputed, engineVersion } = outcome.result;
+  if (format === "jsonl") {
+    const brief = findings.map((f) => ({ code: f.code, severity: f.severity, message: f.message }));
+    return JSON.stringify({ row: row.row, comparison, findings: brief, skipped, recomputed, engineVersion }) + "\n";
+  }
+  if (findings.length === 0) return csvLine([String(row.row), comparison ?? "", "clean", "", "", "", "", "", engineVersion]);
+  return findings
+    .map((f) => csvLine([String(row.row), comparison ?? "", "finding", f.code, f.severity, f.subject, "", f.message, engineVersion]))
+    .join("");
 }
 
 async function run(args: readonly string[]): Promise<number> {
@@ -127,77 +134,51 @@ async function run(args: readonly string[]): Promise<number> {
     process.stdout.write(USAGE + "\n");
     return 0;
   }
-  const bytes = await checkReadable(command.file);
-  let threads: number;
-  try {
-    threads = workerCount(bytes, process.env.FITLEDGER_RECHECK_THREADS);
-  } catch (error) {
-    throw new CommandError(oneLine(error));
-  }
+  await checkReadable(command.file);
   const output = new Output(process.stdout);
   if (command.format === "csv") await output.write(CSV_HEADER);
-  const pool = threads > 0 ? new RowPool(new URL(import.meta.url), threads, command.format) : null;
-  // batches handed to the workers, oldest first: written in this order, at most a few per worker at once
-  const inFlight: Promise<Uint8Array>[] = [];
-  const maxInFlight = 4 * threads;
-  const writeOldest = async () => output.write(await inFlight.shift()!);
   // 64 KB chunks (measured: 1 MB chunks were 2.4x slower end to end, the rows of a big chunk outliving
   // the young-generation collections); one chunk and one unfinished row in memory at a time
   const source = createReadStream(command.file, { highWaterMark: 1 << 16 });
   try {
-    if (!pool) {
-      for await (const batch of readSheetBatches(source)) await output.write(batchLines(batch, command.format));
+    for await (const batch of readSheetBatches(source)) {
+      let text = "";
+      for (const row of batch) text += resultLines(row, command.format);
+      await output.write(text);
     }
-    for await (const batch of pool ? readSheetBatches(source, recordCells) : []) {
-      const lines = pool!.lines(batch);
-      lines.catch(() => undefined); // awaited in order below; until then not an unhandled rejection
-      inFlight.push(lines);
-      if (inFlight.length >= maxInFlight) await writeOldest();
-    }
-    while (inFlight.length > 0) await writeOldest();
   } catch (error) {
-    if (error instanceof OutputError || error instanceof WorkerFailure) throw error;
+    if (error instanceof OutputError) throw error;
     // rows already rechecked still go out before the refusal
-    if (isSheetError(error) || (error as NodeJS.ErrnoException).code) {
-      while (inFlight.length > 0) await writeOldest();
-      await output.flush();
-    }
+    await output.flush();
     if (isSheetError(error)) throw new CommandError(`${command.file}: ${error.message}`);
     if ((error as NodeJS.ErrnoException).code) throw new CommandError(fileProblem(command.file, error));
     throw error;
-  } finally {
-    await pool?.close();
   }
   await output.flush();
   return 0;
 }
 
-// In a worker thread (lib/cli/recheck-pool.ts) this module only answers batches of rows.
-if (!serveRows()) startCommand();
+// A reader that stops early (`| head`) closes the pipe: that is its choice, not our failure.
+process.stdout.on("error", (error: NodeJS.ErrnoException) => {
+  if (error.code === "EPIPE") process.exit(0);
+  process.stderr.write(`recheck: cannot write the results: ${oneLine(error)}\n`);
+  process.exit(1);
+});
 
-function startCommand(): void {
-  // A reader that stops early (`| head`) closes the pipe: that is its choice, not our failure.
-  process.stdout.on("error", (error: NodeJS.ErrnoException) => {
-    if (error.code === "EPIPE") process.exit(0);
-    process.stderr.write(`recheck: cannot write the results: ${oneLine(error)}\n`);
-    process.exit(1);
-  });
-
-  run(process.argv.slice(2)).then(
-    (status) => {
-      process.exitCode = status;
-    },
-    (error: unknown) => {
-      if (error instanceof CommandError) {
-        process.stderr.write(`recheck: ${oneLine(error)}\n`);
-        process.exitCode = 2;
-      } else if (error instanceof OutputError) {
-        process.stderr.write(`recheck: ${oneLine(error)}\n`);
-        process.exitCode = 1;
-      } else {
-        process.stderr.write(`recheck failed unexpectedly: ${oneLine(error)}\n`);
-        process.exitCode = 1;
-      }
-    },
-  );
-}
+run(process.argv.slice(2)).then(
+  (status) => {
+    process.exitCode = status;
+  },
+  (error: unknown) => {
+    if (error instanceof CommandError) {
+      process.stderr.write(`recheck: ${oneLine(error)}\n`);
+      process.exitCode = 2;
+    } else if (error instanceof OutputError) {
+      process.stderr.write(`recheck: ${oneLine(error)}\n`);
+      process.exitCode = 1;
+    } else {
+      process.stderr.write(`recheck failed unexpectedly: ${oneLine(error)}\n`);
+      process.exitCode = 1;
+    }
+  },
+);

@@ -16,7 +16,7 @@ export {
 } from "./columns";
 export { SheetError, isSheetError, type SheetErrorCode } from "./sheet-error";
 export { resolveHeader, suggestColumn, nearestName, unknownColumnMessage, normaliseColumnName, type SheetLayout } from "./header";
-export { readSheet, readSheetBatches, SheetParser, type ByteSource, type RowBuilder } from "./read-sheet";
+export { readSheet, readSheetBatches, SheetParser, type ByteSource } from "./read-sheet";
 export { buildRow, emptyRecord, recordPart, toComparisonInput } from "./sheet-row";
 export { checkSheetRow, checkSheetRecord, validateSheetRow, mergeFieldErrors } from "./validate-row";
 export { normaliseDoi, DOI_PATTERN } from "./doi";

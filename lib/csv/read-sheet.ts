@@ -55,15 +55,11 @@ function quoteProblem(error: Papa.ParseError): string {
   return error.message;
 }
 
-/** Turns a data record's cells into what the parser hands on (buildRow's signature). */
-export type RowBuilder<T> = (layout: SheetLayout, cells: string[], row: number, problems: readonly FieldError[]) => T;
-
 /**
  * Push-style core: feed decoded text, get the rows completed so far. Throws SheetError when the sheet
- * as a whole cannot be read (no header, a header the catalogue refuses). Rows are SheetRows unless
- * another builder is given (the recheck command hands bare cells to its worker threads).
+ * as a whole cannot be read (no header, a header the catalogue refuses).
  */
-export class SheetParser<T = SheetRow> {
+export class SheetParser {
   private pending = "";
   private parser: Papa.Parser | undefined;
   private layout: SheetLayout | undefined;
@@ -71,9 +67,7 @@ export class SheetParser<T = SheetRow> {
   private records = 0;
   private refusal: SheetError | undefined;
 
-  constructor(private readonly build: RowBuilder<T> = buildRow as unknown as RowBuilder<T>) {}
-
-  push(text: string, final: boolean): T[] {
+  push(text: string, final: boolean): SheetRow[] {
     if (this.refusal) throw this.refusal;
     this.pending = this.pending === "" ? text : this.pending + text;
     if (!this.parser && !this.start(final)) return [];
@@ -88,7 +82,7 @@ export class SheetParser<T = SheetRow> {
       problemsAt.set(error.row, list);
     }
 
-    const rows: T[] = [];
+    const rows: SheetRow[] = [];
     const data = result.data;
     for (let i = 0; i < data.length; i++) {
       const cells = data[i];
@@ -103,7 +97,7 @@ export class SheetParser<T = SheetRow> {
       if (cells.length !== width) {
         (problems ??= []).push({ column: WHOLE_ROW, message: `has ${cells.length} cells but the header has ${width} columns` });
       }
-      rows.push(this.build(this.layout, cells, this.records, problems ?? NO_PROBLEMS));
+      rows.push(buildRow(this.layout, cells, this.records, problems ?? NO_PROBLEMS));
     }
     if (final && !this.layout) throw new SheetError("empty_file", "the file is empty (no header row)");
     if (this.pending.length > MAX_RECORD_CHARS) {
@@ -140,9 +134,9 @@ export class SheetParser<T = SheetRow> {
 }
 
 /** Rows in the batches they were completed in (one batch per input chunk): cheaper for bulk consumers. */
-export async function* readSheetBatches<T = SheetRow>(source: ByteSource, build?: RowBuilder<T>): AsyncGenerator<T[]> {
+export async function* readSheetBatches(source: ByteSource): AsyncGenerator<SheetRow[]> {
   const decoder = new Utf8ChunkDecoder();
-  const parser = new SheetParser<T>(build);
+  const parser = new SheetParser();
   for await (const chunk of source) {
     const rows = parser.push(decoder.decode(chunk), false);
     if (rows.length > 0) yield rows;

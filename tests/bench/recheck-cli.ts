@@ -18,7 +18,6 @@ import { createReadStream, createWriteStream, mkdtempSync, readFileSync, rmSync,
 import { availableParallelism, loadavg, tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
-import { workerCount } from "@/lib/cli/recheck-pool";
 import { checkSheetRow, readSheetBatches, sheetHeaderLine, sheetRecordLine, toComparisonInput, type SheetRecord } from "@/lib/csv";
 import { recheck } from "@/lib/recheck";
 import type { ComparisonInput } from "@/lib/recheck/types";
@@ -108,12 +107,12 @@ function processTree(pid: number): number[] {
   }
 }
 
-async function runCli(args: string[], extraEnv: Record<string, string> = {}): Promise<Measured> {
+async function runCli(args: string[]): Promise<Measured> {
   const started = performance.now();
   const child = spawn(CLI[0], [...CLI[1], ...args], {
     cwd: ROOT,
     stdio: ["ignore", "pipe", "pipe"],
-    env: { ...process.env, ...extraEnv, NODE_OPTIONS: `--import=${PRELOAD}` },
+    env: { ...process.env, NODE_OPTIONS: `--import=${PRELOAD}` },
   });
   let outputBytes = 0;
   let outputLines = 0;
@@ -130,15 +129,10 @@ async function runCli(args: string[], extraEnv: Record<string, string> = {}): Pr
   const [status] = (await once(child, "close")) as [number | null];
   clearInterval(sampler);
   const seconds = (performance.now() - started) / 1000;
-  // one report per process (a worker thread that reports too gives its process's figures: kept once)
-  const byPid = new Map<string, { rss: number; cpu: number }>();
-  for (const m of stderr.matchAll(/\[bench\] pid=(\d+) maxrss_kb=(\d+) cpu_us=(\d+)/g)) {
-    const seen = byPid.get(m[1]);
-    byPid.set(m[1], { rss: Math.max(seen?.rss ?? 0, Number(m[2])), cpu: Math.max(seen?.cpu ?? 0, Number(m[3])) });
-  }
-  const peaks = [...byPid.values()].map((r) => r.rss);
-  // CPU time of all node processes (launcher and CLI, worker threads included): less sensitive than wall time to a busy machine
-  const cpuSeconds = [...byPid.values()].reduce((sum, r) => sum + r.cpu, 0) / 1e6;
+  const reports = [...stderr.matchAll(/\[bench\] pid=\d+ maxrss_kb=(\d+) cpu_us=(\d+)/g)];
+  const peaks = reports.map((m) => Number(m[1]));
+  // CPU time of all node processes (launcher and CLI): less sensitive than wall time to a busy machine
+  const cpuSeconds = reports.reduce((sum, m) => sum + Number(m[2]), 0) / 1e6;
   const cliStderr = stderr.replace(/\[bench\][^\n]*\n/g, "");
   return { seconds, cpuSeconds, status, outputLines, outputBytes, peakKb: Math.max(0, ...peaks), vmHwmKb, stderr: cliStderr };
 }
@@ -177,14 +171,6 @@ function median(values: number[]): number {
 const mb = (kb: number) => (kb / 1024).toFixed(0);
 
 async function main(): Promise<void> {
-  // `--write-sheet FILE`: only write the generated sheet (for profiling the command line by hand)
-  const writeOnly = process.argv.indexOf("--write-sheet");
-  if (writeOnly >= 0) {
-    const target = process.argv[writeOnly + 1];
-    if (!target) throw new Error("--write-sheet needs a file name");
-    console.log(`sheet: ${await writeBenchSheet(target)} rows written to ${target}`);
-    return;
-  }
   const dir = mkdtempSync(join(tmpdir(), "fitledger-bench-"));
   const file = join(dir, "comparisons-100k.csv");
   try {
@@ -207,35 +193,27 @@ async function main(): Promise<void> {
         `(engine share ${(rechecked - read).toFixed(2)} s)`,
     );
 
-    // as `npm run recheck` runs it (worker threads for a sheet this size), then on the main thread alone
-    const threads = workerCount(size, process.env.FITLEDGER_RECHECK_THREADS);
-    const setups: Array<{ name: string; env: Record<string, string> }> = [
-      { name: threads > 0 ? `${threads} worker threads` : "main thread only", env: {} },
-      ...(threads > 0 ? [{ name: "main thread only", env: { FITLEDGER_RECHECK_THREADS: "0" } }] : []),
-    ];
-    for (const setup of setups) {
-      for (const format of ["jsonl", "csv"] as const) {
-        const runs: Measured[] = [];
-        for (let i = 0; i < RUNS; i++) runs.push(await runCli([file, "--format", format], setup.env));
-        for (const run of runs) {
-          if (run.status !== 0 || run.stderr !== "") throw new Error(`CLI failed (status ${run.status}): ${run.stderr.trim()}`);
-        }
-        const expectedLines = format === "jsonl" ? rows : undefined;
-        if (expectedLines !== undefined && runs.some((r) => r.outputLines !== expectedLines)) {
-          throw new Error(`expected ${expectedLines} result lines, got ${runs.map((r) => r.outputLines).join(", ")}`);
-        }
-        const seconds = median(runs.map((r) => r.seconds));
-        const peak = Math.max(...runs.map((r) => r.peakKb));
-        const hwm = Math.max(...runs.map((r) => r.vmHwmKb));
-        const verdict = (ok: boolean) => (ok ? "met" : "MISSED");
-        console.log(
-          `--format ${format}, ${setup.name}: wall ${runs.map((r) => r.seconds.toFixed(2)).join(" / ")} s (median ${seconds.toFixed(2)} s, ` +
-            `target < ${TARGET_SECONDS} s: ${verdict(seconds < TARGET_SECONDS)}; ${(seconds - startup.seconds).toFixed(2)} s after start-up, ` +
-            `${Math.round(rows / (seconds - startup.seconds)).toLocaleString("en")} rows/s; CPU ${median(runs.map((r) => r.cpuSeconds)).toFixed(2)} s), ` +
-            `peak RSS ${mb(peak)} MB (target < ${TARGET_MB} MB: ${verdict(peak / 1024 < TARGET_MB)}; sampled VmHWM ${mb(hwm)} MB), ` +
-            `output ${runs[0].outputLines} lines, ${(runs[0].outputBytes / 1e6).toFixed(1)} MB`,
-        );
+    for (const format of ["jsonl", "csv"] as const) {
+      const runs: Measured[] = [];
+      for (let i = 0; i < RUNS; i++) runs.push(await runCli([file, "--format", format]));
+      for (const run of runs) {
+        if (run.status !== 0 || run.stderr !== "") throw new Error(`CLI failed (status ${run.status}): ${run.stderr.trim()}`);
       }
+      const expectedLines = format === "jsonl" ? rows : undefined;
+      if (expectedLines !== undefined && runs.some((r) => r.outputLines !== expectedLines)) {
+        throw new Error(`expected ${expectedLines} result lines, got ${runs.map((r) => r.outputLines).join(", ")}`);
+      }
+      const seconds = median(runs.map((r) => r.seconds));
+      const peak = Math.max(...runs.map((r) => r.peakKb));
+      const hwm = Math.max(...runs.map((r) => r.vmHwmKb));
+      const verdict = (ok: boolean) => (ok ? "met" : "MISSED");
+      console.log(
+        `--format ${format}: wall ${runs.map((r) => r.seconds.toFixed(2)).join(" / ")} s (median ${seconds.toFixed(2)} s, ` +
+          `target < ${TARGET_SECONDS} s: ${verdict(seconds < TARGET_SECONDS)}; ${(seconds - startup.seconds).toFixed(2)} s after start-up, ` +
+          `${Math.round(rows / (seconds - startup.seconds)).toLocaleString("en")} rows/s; CPU ${median(runs.map((r) => r.cpuSeconds)).toFixed(2)} s), ` +
+          `peak RSS ${mb(peak)} MB (target < ${TARGET_MB} MB: ${verdict(peak / 1024 < TARGET_MB)}; sampled VmHWM ${mb(hwm)} MB), ` +
+          `output ${runs[0].outputLines} lines, ${(runs[0].outputBytes / 1e6).toFixed(1)} MB`,
+      );
     }
     console.log(`load average ${load()} (1 min) after the runs`);
   } finally {

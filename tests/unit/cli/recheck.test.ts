@@ -23,15 +23,8 @@ interface Run {
 }
 
 function recheckCli(...args: string[]): Promise<Run> {
-  return recheckWith({}, ...args);
-}
-
-/** The command with extra environment variables (FITLEDGER_RECHECK_THREADS), from source or bundled. */
-function recheckWith(extra: Record<string, string>, ...args: string[]): Promise<Run> {
-  const bundled = extra.VIA_LAUNCHER === "1";
-  const [command, lead] = bundled ? [process.execPath, ["lib/cli/recheck-launcher.mjs"]] : [TSX, ["lib/cli/recheck.ts"]];
   return new Promise((resolve) => {
-    execFile(command, [...lead, ...args], { cwd: ROOT, maxBuffer: 1 << 26, env: { ...process.env, ...extra } }, (error, stdout, stderr) => {
+    execFile(TSX, ["lib/cli/recheck.ts", ...args], { cwd: ROOT, maxBuffer: 1 << 26 }, (error, stdout, stderr) => {
       const status = error ? Number((error as NodeJS.ErrnoException & { code?: unknown }).code) : 0;
       resolve({ status, stdout, stderr });
     });
@@ -196,47 +189,5 @@ describe("recheck command line: output into a pipe", () => {
     expect(JSON.parse(first.toString().split("\n")[0])).toMatchObject({ row: 1 });
     expect(status).toBe(0);
     expect(stderr).toBe("");
-  });
-});
-
-describe("recheck command line: worker threads", () => {
-  /** 1 801 rows (many 64 KB batches): the reference sheet's rows, rows with bad cells, a short row. */
-  async function longSheet(): Promise<string> {
-    const rows = [];
-    for (const name of ["holzinger-swineford.csv", "with-bad-cells.csv"]) {
-      for await (const row of readSheet([readFileSync(join(ROOT, SHEETS, name))])) rows.push(row);
-    }
-    let text = sheetHeaderLine();
-    for (let i = 0; i < 300; i++) for (const row of rows) text += sheetRecordLine({ ...row, comparison: { ...row.comparison, label: `${row.comparison.label ?? "c"} ${i}` } });
-    return text + "10.5555/short-row,too few cells\r\n";
-  }
-
-  it("writes byte for byte what the single-threaded command writes, in sheet order, in both formats", { timeout: TIMEOUT * 4 }, async () => {
-    const file = join(scratch, "threads.csv");
-    writeFileSync(file, await longSheet());
-    for (const format of ["jsonl", "csv"]) {
-      const [alone, source, bundled] = await Promise.all([
-        recheckWith({ FITLEDGER_RECHECK_THREADS: "0" }, file, "--format", format),
-        recheckWith({ FITLEDGER_RECHECK_THREADS: "2" }, file, "--format", format),
-        recheckWith({ FITLEDGER_RECHECK_THREADS: "3", VIA_LAUNCHER: "1" }, file, "--format", format),
-      ]);
-      expect(alone.status).toBe(0);
-      if (format === "jsonl") expect(jsonLines(alone.stdout).map((line) => line.row)).toEqual(Array.from({ length: 1801 }, (_, i) => i + 1));
-      expect(source, `${format}, 2 threads from source`).toEqual(alone);
-      expect(bundled, `${format}, 3 threads bundled`).toEqual(alone);
-    }
-  });
-
-  it("still writes the rows before a late unreadable byte, then refuses as the single-threaded command does", { timeout: TIMEOUT * 2 }, async () => {
-    const file = join(scratch, "threads-latin1.csv");
-    writeFileSync(file, Buffer.concat([Buffer.from(await longSheet()), Buffer.from([0x43, 0x61, 0x66, 0xe9, 0x0d, 0x0a])]));
-    const [alone, threaded] = await Promise.all([recheckWith({ FITLEDGER_RECHECK_THREADS: "0" }, file), recheckWith({ FITLEDGER_RECHECK_THREADS: "2" }, file)]);
-    expectRefusal(alone, /UTF-8/);
-    expect(jsonLines(alone.stdout).length).toBeGreaterThan(1000);
-    expect(threaded).toEqual(alone);
-  });
-
-  it("refuses a thread count that is not a whole number from 0 to 64, in one line", { timeout: TIMEOUT }, async () => {
-    expectRefusal(await recheckWith({ FITLEDGER_RECHECK_THREADS: "many" }, `${SHEETS}/holzinger-swineford.csv`), /^recheck: FITLEDGER_RECHECK_THREADS must be a whole number from 0 to 64, not "many"$/);
   });
 });
