@@ -171,6 +171,14 @@ function median(values: number[]): number {
 const mb = (kb: number) => (kb / 1024).toFixed(0);
 
 async function main(): Promise<void> {
+  // `--write-sheet FILE`: only write the generated sheet (for profiling the command line by hand)
+  const writeOnly = process.argv.indexOf("--write-sheet");
+  if (writeOnly >= 0) {
+    const target = process.argv[writeOnly + 1];
+    if (!target) throw new Error("--write-sheet needs a file name");
+    console.log(`sheet: ${await writeBenchSheet(target)} rows written to ${target}`);
+    return;
+  }
   const dir = mkdtempSync(join(tmpdir(), "fitledger-bench-"));
   const file = join(dir, "comparisons-100k.csv");
   try {
