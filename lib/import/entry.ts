@@ -193,9 +193,11 @@ export function readEntry(row: SheetRow): EntryReading {
 }
 
 /**
- * An empty part and the mark between parts: ASCII's record and unit separators, which printed figures and
- * labels do not hold. Not NUL: the database builds stored rows' signatures itself (lib/import/existing.ts),
- * and PostgreSQL's text cannot hold NUL, nor SQLite's string functions treat it as a character.
+ * An empty part and the mark between parts: ASCII's record and unit separators, control characters no
+ * printed figure or label has a use for (a cell holding one could make two codings look alike; the sheet
+ * reader itself refuses only NUL). Not NUL here: the database builds stored rows' signatures itself
+ * (lib/import/existing.ts), and PostgreSQL's text cannot hold NUL, nor do SQLite's string functions
+ * treat it as a character.
  */
 export const SIGNATURE_NULL = "\u001e";
 export const SIGNATURE_SEPARATOR = "\u001f";
