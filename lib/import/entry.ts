@@ -217,34 +217,17 @@ export function decodeSignature(encoded: string): (string | null)[] {
 }
 
 /**
- * What identifies a stored model's coding: estimator, mean structure and every printed figure (a stored
- * row). The importer has the database build it (lib/import/existing.ts signatureSql); this is the
- * definition that SQL is tested against (tests/integration/import/stored-signatures.test.ts).
+ * What identifies a model's coding: estimator, mean structure ("yes"/"no") and every printed figure, here
+ * from a sheet row's values. The database builds the same string for stored rows (lib/import/existing.ts
+ * signatureSql, tested in tests/integration/import/stored-signatures.test.ts).
  */
-export function modelSignature(model: { estimator: string | null; meanStructure: boolean | null } & Record<string, unknown>): (string | null)[] {
-  const parts: (string | null)[] = [model.estimator ?? null, model.meanStructure === null || model.meanStructure === undefined ? null : model.meanStructure ? "yes" : "no"];
-  for (const figure of MODEL_FIGURES) parts.push((model[textAttribute(figure)] as string | null | undefined) ?? null);
-  return parts;
-}
-
-/** The same signature from a sheet row's values. */
 export function valuesModelSignature(model: ModelValues): (string | null)[] {
   return [model.estimator, model.meanStructure === null ? null : model.meanStructure ? "yes" : "no", ...model.texts];
 }
 
 export const MODEL_SIGNATURE_COLUMNS = ["estimator", "mean_structure", ...MODEL_FIGURES.map((f) => SHEET_COLUMNS.find((c) => c.part === "a" && c.key === f)!.name.slice(2))];
 
-/** What identifies a stored comparison's coding (a stored row, with its models' labels). */
-export function comparisonSignature(
-  comparison: { method: string; nested: string; alphaText: string | null; location: string | null; preferred: string | null; invarianceClaimed: string; notes: string | null } & Record<string, unknown>,
-  restrictedLabel: string,
-  freeLabel: string,
-): (string | null)[] {
-  const parts: (string | null)[] = [comparison.method, comparison.nested, comparison.alphaText, comparison.location, comparison.preferred, comparison.invarianceClaimed, comparison.notes, restrictedLabel, freeLabel];
-  for (const figure of COMPARISON_FIGURES) parts.push((comparison[textAttribute(figure)] as string | null | undefined) ?? null);
-  return parts;
-}
-
+/** What identifies a comparison's coding, with its models' labels, from a sheet row's values. */
 export function valuesComparisonSignature(c: ComparisonValues, restrictedLabel: string, freeLabel: string): (string | null)[] {
   return [c.method, c.nested, c.alphaText, c.location, c.preferred, c.invarianceClaimed, c.notes, restrictedLabel, freeLabel, ...c.texts];
 }

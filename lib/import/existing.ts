@@ -25,13 +25,13 @@ export interface ExistingSample {
 
 export interface ExistingModel {
   id: number;
-  /** encodeSignature(modelSignature(row)), built by the database (signatureSql) */
+  /** encodeSignature of the model's coding (see valuesModelSignature), built by the database (signatureSql) */
   signature: string;
 }
 
 export interface ExistingComparison {
   id: number;
-  /** encodeSignature(comparisonSignature(row, …)) */
+  /** encodeSignature of the comparison's coding (see valuesComparisonSignature), built as in loadExisting */
   signature: string;
 }
 
@@ -59,7 +59,7 @@ function chunks<T>(items: readonly T[]): T[][] {
 
 /**
  * SQL for a stored row's signature: its parts joined by SIGNATURE_SEPARATOR, SIGNATURE_NULL for an empty
- * one, a boolean as "yes"/"no" — the string encodeSignature(modelSignature(row)) gives, built by the
+ * one, a boolean as "yes"/"no" — the string encodeSignature gives for the same coding read from a sheet, built by the
  * database (|| and COALESCE: SQLite and PostgreSQL alike). One short string per stored row instead of a
  * row object of some thirty columns: loading those was most of a re-imported sheet's dry run.
  */
@@ -77,9 +77,9 @@ function signatureSql(model: ModelStatic<Model>, attributes: readonly string[]) 
   return sequelize.literal(parts.join(` || ${sequelize.escape(SIGNATURE_SEPARATOR)} || `));
 }
 
-/** modelSignature's parts, in its order. */
+/** A model signature's parts, in valuesModelSignature's order. */
 const MODEL_SIGNATURE = ["estimator", "meanStructure", ...MODEL_FIGURES.map(textAttribute)];
-/** comparisonSignature's parts before the two model labels, and after them. */
+/** A comparison signature's parts before the two model labels, and after them (valuesComparisonSignature's order). */
 const COMPARISON_SIGNATURE_HEAD = ["method", "nested", "alphaText", "location", "preferred", "invarianceClaimed", "notes"];
 const COMPARISON_SIGNATURE_TAIL = COMPARISON_FIGURES.map(textAttribute);
 
@@ -143,7 +143,7 @@ export async function loadExisting(keys: { dois: Iterable<string>; refs: Iterabl
       transaction,
     })) as unknown as Array<{ id: number; sampleId: number; label: string; restrictedModelId: number; freeModelId: number; head: string; tail: string }>;
     for (const comparison of comparisons) {
-      // comparisonSignature(row, restricted label, free label), encoded
+      // head, the two model labels, tail: valuesComparisonSignature's order, encoded
       const labels = (modelLabel.get(comparison.restrictedModelId) ?? "") + SIGNATURE_SEPARATOR + (modelLabel.get(comparison.freeModelId) ?? "");
       const signature = comparison.head + SIGNATURE_SEPARATOR + labels + SIGNATURE_SEPARATOR + comparison.tail;
       state.comparisons.set(childKey(comparison.sampleId, comparison.label), { id: comparison.id, signature });
