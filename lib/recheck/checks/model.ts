@@ -40,19 +40,24 @@ const scalingFactor = scalingFactorImport;
 const showPInterval = showPIntervalImport;
 const upperTailInterval = upperTailIntervalImport;
 
-// recomputed-figure keys per subject, built once (constant strings keep the result objects fast).
-function keysFor(subject: "a" | "b") {
-  return {
-    p: `${subject}.p`,
-    rmsea: `${subject}.rmsea`,
-    rmseaConvention: `${subject}.rmseaConvention`,
-    rmseaInterval: `${subject}.rmseaInterval`,
-    rmseaIntervalConvention: `${subject}.rmseaIntervalConvention`,
-    dfRecount: `${subject}.dfRecount`,
-  };
-}
-const KEYS_A = keysFor("a");
-const KEYS_B = keysFor("b");
+// recomputed-figure keys per subject, written out as literals: a key built at run time (`${subject}.p`)
+// is not internalised, and every keyed store with it first looks it up in V8's string table.
+const KEYS_A = {
+  p: "a.p",
+  rmsea: "a.rmsea",
+  rmseaConvention: "a.rmseaConvention",
+  rmseaInterval: "a.rmseaInterval",
+  rmseaIntervalConvention: "a.rmseaIntervalConvention",
+  dfRecount: "a.dfRecount",
+};
+const KEYS_B: typeof KEYS_A = {
+  p: "b.p",
+  rmsea: "b.rmsea",
+  rmseaConvention: "b.rmseaConvention",
+  rmseaInterval: "b.rmseaInterval",
+  rmseaIntervalConvention: "b.rmseaIntervalConvention",
+  dfRecount: "b.dfRecount",
+};
 /** A branch, not a keyed read `KEYS[subject]`: a keyed read whose key alternates between two names is megamorphic. */
 function keysOf(subject: "a" | "b") {
   return subject === "a" ? KEYS_A : KEYS_B;
