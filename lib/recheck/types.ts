@@ -138,8 +138,12 @@ export interface RecheckSettings {
 export interface RecheckResult {
   findings: Finding[];
   skipped: SkippedCheck[];
-  /** recomputed figures (Δdf, Δχ² interval, p interval, scaled difference, cd, RMSEA per model …); JSON-serialisable */
-  recomputed: Record<string, number | string | boolean | null | Interval>;
+  /**
+   * recomputed figures (Δdf, Δχ² interval, p interval, scaled difference, cd, RMSEA per model …);
+   * JSON-serialisable. Every key of lib/recheck/report.ts is present; a figure this comparison did not
+   * need is undefined, so JSON leaves it out.
+   */
+  recomputed: Record<string, number | string | boolean | null | Interval | undefined>;
   engineVersion: string;
 }
 

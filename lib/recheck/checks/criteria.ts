@@ -5,7 +5,7 @@
 import { differenceOf as differenceOfImport, meets as meetsImport, showInterval as showIntervalImport } from "../interval";
 import type { ParsedComparison, ParsedModel } from "../parse";
 import type { PrintedNumber } from "../printed";
-import type { Report } from "../report";
+import type { RecomputedKey, Report } from "../report";
 import type { Interval } from "../types";
 import { isMlFamily as isMlFamilyImport, modelName as modelNameImport } from "./common";
 
@@ -72,7 +72,7 @@ export function checkModelCriteria(m: ParsedModel, subject: "a" | "b", n: number
 }
 
 /** `lead` builds the message only when there is a finding. */
-function judgeCriterion(report: Report, subject: "a" | "b" | "comparison", lead: () => string, printed: PrintedNumber, conventions: Convention[], key: string): void {
+function judgeCriterion(report: Report, subject: "a" | "b" | "comparison", lead: () => string, printed: PrintedNumber, conventions: Convention[], key: RecomputedKey): void {
   report.set(key, conventions[0].value);
   for (const c of conventions) if (meets(printed.lo, printed.hi, c.value.lo, c.value.hi)) return;
   const others = conventions.length > 1 ? `; nor does ${conventions.slice(1).map((c) => `${c.name} = ${showInterval(c.value.lo, c.value.hi, 2)}`).join(" or ")}` : "";

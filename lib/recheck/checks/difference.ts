@@ -45,8 +45,8 @@ const showPInterval = showPIntervalImport;
 const upperTailInterval = upperTailIntervalImport;
 
 const TEST_METHODS = new Set(["lrt", "scaled_lrt", "invariance"]);
-const SB_KEYS = { cd: "sb2001.cd", statistic: "sb2001.statistic", p: "sb2001.p" };
-const SB_LOGLIK_KEYS = { cd: "sb2001Loglik.cd", statistic: "sb2001Loglik.statistic", p: "sb2001Loglik.p" };
+const SB_KEYS = { cd: "sb2001.cd", statistic: "sb2001.statistic", p: "sb2001.p" } as const;
+const SB_LOGLIK_KEYS = { cd: "sb2001Loglik.cd", statistic: "sb2001Loglik.statistic", p: "sb2001Loglik.p" } as const;
 
 /** Δdf checks; returns the df of the difference test (models' df first, else the printed Δdf) or null. */
 export function checkDfDifference(c: ParsedComparison, a: ParsedModel, b: ParsedModel, report: Report): number | null {

@@ -49,15 +49,15 @@ const KEYS_A = {
   rmseaInterval: "a.rmseaInterval",
   rmseaIntervalConvention: "a.rmseaIntervalConvention",
   dfRecount: "a.dfRecount",
-};
-const KEYS_B: typeof KEYS_A = {
+} as const;
+const KEYS_B = {
   p: "b.p",
   rmsea: "b.rmsea",
   rmseaConvention: "b.rmseaConvention",
   rmseaInterval: "b.rmseaInterval",
   rmseaIntervalConvention: "b.rmseaIntervalConvention",
   dfRecount: "b.dfRecount",
-};
+} as const;
 /** A branch, not a keyed read `KEYS[subject]`: a keyed read whose key alternates between two names is megamorphic. */
 function keysOf(subject: "a" | "b") {
   return subject === "a" ? KEYS_A : KEYS_B;

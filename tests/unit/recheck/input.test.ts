@@ -89,6 +89,22 @@ describe("what is not a field error", () => {
     expect(recheck(input).ok).toBe(true);
   });
 
+  it("recomputed lists, in its JSON form, exactly the figures that were computed", () => {
+    const outcome = recheck({ method: "lrt", dDf: "3", sample: { n: "200" }, restricted: { chisq: "30.10", df: "12" }, free: { chisq: "21.00", df: "9" } });
+    expect(outcome.ok).toBe(true);
+    if (!outcome.ok) return;
+    // Figures the checks did not need stay undefined, and JSON leaves them out.
+    const json = JSON.parse(JSON.stringify(outcome.result.recomputed)) as Record<string, unknown>;
+    expect(Object.keys(json)).toEqual(["a.p", "b.p", "dDf", "dChisq"]);
+    expect(json.dDf).toBe(3);
+    // 30.10 − 21.00 with each printed at 2 decimals: [30.095 − 21.005, 30.105 − 20.995]
+    const d = json.dChisq as { lo: number; hi: number };
+    expect(d.lo).toBeCloseTo(9.09, 12);
+    expect(d.hi).toBeCloseTo(9.11, 12);
+    const lone = recheckModel({ chisq: "9.20", df: "5" }, { n: "100" });
+    expect(lone.ok && Object.keys(JSON.parse(JSON.stringify(lone.result.recomputed)))).toEqual(["a.p"]);
+  });
+
   it("never throws, even on a malformed object", () => {
     expect(() => recheck({} as ComparisonInput)).not.toThrow();
     expect(() => recheck(null as unknown as ComparisonInput)).not.toThrow();
