@@ -122,6 +122,30 @@ export function regularizedGammaP(a: number, x: number): number {
   return lowerWithPrefactor(a, x, gammaPrefactor(a, x));
 }
 
+/**
+ * P(a, x) for 0 < x < a + 1 from the power series, stopped as soon as the terms left add up to at most
+ * `tolerance`: returns P̃ with P̃ ≤ P(a, x) ≤ P̃ + tolerance (up to rounding). The term ratios
+ * x/(a + n + 1) fall as n grows and are below 1 from the first on (x < a + 1), so the terms after one
+ * of size T, whose successor ratio is r, add up to at most T·(r + r² + …) = T·r/(1 − r).
+ * For the noncentral sign test, which needs P far less precisely than a full evaluation when its
+ * answer is not close.
+ */
+export function lowerSeriesWithin(a: number, x: number, prefactor: number, tolerance: number): number {
+  const MAX_ITERATIONS = 100_000;
+  // Remainder after `term` (whose denominator ends in ap): term·x/(ap + 1 − x), to be ≤ tolerance/prefactor.
+  const limit = tolerance / prefactor;
+  let term = 1 / a;
+  let sum = term;
+  let ap = a;
+  for (let n = 0; n < MAX_ITERATIONS; n++) {
+    ap += 1;
+    term *= x / ap;
+    sum += term;
+    if (term * x <= limit * (ap + 1 - x)) break;
+  }
+  return Math.min(1, prefactor * sum);
+}
+
 /** P(a, x) for x > 0 when the caller already holds gammaPrefactor(a, x) (the noncentral series does). */
 export function lowerWithPrefactor(a: number, x: number, prefactor: number): number {
   if (x < a + 1) return Math.min(1, prefactor * lowerSeries(a, x));

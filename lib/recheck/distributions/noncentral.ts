@@ -7,6 +7,7 @@
 // thousands of terms. Absolute error below ~1e-13, ample for locating .05 / .95 points.
 import {
   gammaPrefactor as gammaPrefactorImport,
+  lowerSeriesWithin as lowerSeriesWithinImport,
   lowerWithPrefactor as lowerWithPrefactorImport,
   regularizedGammaP as regularizedGammaPImport,
 } from "./gamma";
@@ -14,6 +15,7 @@ import {
 // Imported functions bound once: under tsx (CommonJS output, as the CLI runs) each call to an import
 // otherwise goes through an export getter, which showed up in the engine benchmark's profile.
 const gammaPrefactor = gammaPrefactorImport;
+const lowerSeriesWithin = lowerSeriesWithinImport;
 const lowerWithPrefactor = lowerWithPrefactorImport;
 const regularizedGammaP = regularizedGammaPImport;
 
@@ -73,64 +75,92 @@ export function noncentralChisqCdf(x: number, df: number, lambda: number): numbe
 }
 
 /**
+ * The Poisson probability at the mode m = ⌊μ⌋, μ^m e^−μ / m!. For m < 10 directly as e^−μ · Π μ/i (no
+ * underflow as μ < 10; m rounding errors of one unit each), which saves the three logarithms ln Γ takes
+ * below 10; otherwise through gammaPrefactor(m + 1, μ) / μ (Loader 2000).
+ */
+function poissonAtMode(mu: number, mode: number): number {
+  if (mode >= 10) return gammaPrefactor(mode + 1, mu) / mu;
+  let weight = Math.exp(-mu);
+  for (let i = 1; i <= mode; i++) weight *= mu / i;
+  return weight;
+}
+
+/**
  * Is F(x; df, λ) ≥ target? The same series, summed outwards from the mode alternately up and down, and
  * stopped as soon as the answer is certain: the partial sum S only grows, and what is left is at most the
  * Poisson mass not yet visited (each P ≤ 1), so F ∈ [S, S + 1 − W] with W the weights summed so far.
  * A bound that is not close to the target is decided after a few standard deviations of the Poisson
  * weights instead of the ±7σ a full evaluation needs. Used for the RMSEA interval checks.
+ *
+ * Where P at the mode comes from the power series (y < a + mode + 1), a first pass takes it to within
+ * COARSE only (lowerSeriesWithin: about half the terms). Every P_j is then P_mode plus exact differences,
+ * so each is short of its true value by at most COARSE and F ∈ [S, S + 1 − W + COARSE] (the weights sum
+ * to 1). Only a test still undecided when the series has converged, i.e. F within COARSE of the target,
+ * is repeated with P at the mode to full precision.
  */
 export function noncentralCdfAtLeast(x: number, df: number, lambda: number, target: number): boolean {
   const TAIL = 1e-13;
   const MAX_TERMS = 100_000;
+  const COARSE = 1e-7;
   if (x <= 0) return target <= 0;
   const a = df / 2;
   const y = x / 2;
   if (lambda <= 0) return regularizedGammaP(a, y) >= target;
   const mu = lambda / 2;
   const mode = Math.floor(mu);
-  const weightAtMode = gammaPrefactor(mode + 1, mu) / mu;
+  const weightAtMode = poissonAtMode(mu, mode);
   const prefactor = gammaPrefactor(a + mode, y);
-  const pAtMode = lowerWithPrefactor(a + mode, y, prefactor);
   const termAtMode = prefactor / (a + mode);
-  let sum = weightAtMode * pAtMode;
-  let seen = weightAtMode;
-  let wUp = weightAtMode;
-  let pUp = pAtMode;
-  let tUp = termAtMode;
-  let jUp = mode;
-  let upDone = false;
-  let wDown = weightAtMode;
-  let pDown = pAtMode;
-  let tDown = termAtMode;
-  let jDown = mode;
-  let downDone = mode === 0;
-  for (let step = 0; step < MAX_TERMS; step++) {
-    if (sum >= target) return true;
-    const unseen = 1 - seen;
-    if (sum + (unseen > 0 ? unseen : 0) < target) return false;
-    if (upDone && downDone) return sum >= target;
-    if (!upDone) {
-      pUp -= tUp;
-      if (pUp < 0) pUp = 0;
-      tUp *= y / (a + jUp + 1);
-      wUp *= mu / (jUp + 1);
-      jUp++;
-      sum += wUp * pUp;
-      seen += wUp;
-      if ((jUp + 1 > mu && wUp * pUp * mu < TAIL * (jUp + 1 - mu)) || wUp === 0 || pUp === 0) upDone = true;
+  const inverseY = 1 / y;
+  const inverseMu = 1 / mu;
+  let slack = y < a + mode + 1 ? COARSE : 0;
+  let pAtMode = slack > 0 ? lowerSeriesWithin(a + mode, y, prefactor, COARSE) : lowerWithPrefactor(a + mode, y, prefactor);
+  for (;;) {
+    let sum = weightAtMode * pAtMode;
+    let seen = weightAtMode;
+    let wUp = weightAtMode;
+    let pUp = pAtMode;
+    let tUp = termAtMode;
+    let jUp = mode;
+    let upDone = false;
+    let wDown = weightAtMode;
+    let pDown = pAtMode;
+    let tDown = termAtMode;
+    let jDown = mode;
+    let downDone = mode === 0;
+    for (let step = 0; step < MAX_TERMS; step++) {
+      if (sum >= target) return true;
+      const unseen = 1 - seen;
+      if (sum + (unseen > 0 ? unseen : 0) + slack < target) return false;
+      if (upDone && downDone) break;
+      if (!upDone) {
+        pUp -= tUp;
+        if (pUp < 0) pUp = 0;
+        tUp *= y / (a + jUp + 1);
+        wUp *= mu / (jUp + 1);
+        jUp++;
+        sum += wUp * pUp;
+        seen += wUp;
+        if ((jUp + 1 > mu && wUp * pUp * mu < TAIL * (jUp + 1 - mu)) || wUp === 0 || pUp === 0) upDone = true;
+      }
+      if (!downDone) {
+        tDown *= (a + jDown) * inverseY;
+        pDown += tDown;
+        if (pDown > 1) pDown = 1;
+        wDown *= jDown * inverseMu;
+        jDown--;
+        sum += wDown * pDown;
+        seen += wDown;
+        if (jDown === 0 || wDown * jDown < TAIL * (mu - jDown) || wDown === 0) downDone = true;
+      }
     }
-    if (!downDone) {
-      tDown *= (a + jDown) / y;
-      pDown += tDown;
-      if (pDown > 1) pDown = 1;
-      wDown *= jDown / mu;
-      jDown--;
-      sum += wDown * pDown;
-      seen += wDown;
-      if (jDown === 0 || wDown * jDown < TAIL * (mu - jDown) || wDown === 0) downDone = true;
-    }
+    // The series has converged (to TAIL) with the answer undecided: final with P at full precision,
+    // else F lies within COARSE of the target and the first pass repeats with the precise P.
+    if (slack === 0 || sum + slack < target) return sum >= target;
+    slack = 0;
+    pAtMode = lowerWithPrefactor(a + mode, y, prefactor);
   }
-  return sum >= target;
 }
 
 /**
