@@ -99,11 +99,10 @@ function poissonAtMode(mu: number, mode: number): number {
  * F ∈ [S, S + 1 − W + COARSE] (the weights sum to 1). Only a test still undecided when the series has
  * converged, i.e. F within COARSE of the target, is decided by the full sum instead.
  *
- * Tried and dropped, as slower under V8 on the engine's recorded calls although they decide in fewer
- * steps: bounding the unvisited terms through P's monotonicity (those above the window by P there
- * times a geometric bound on the Poisson tail, those below by P there from below) — 14.5 instead of
- * 18.5 steps, but 9–16 % more time for the extra arithmetic per step; one reciprocal for the two
- * upward ratios instead of two divisions.
+ * Tried and dropped, as slower under V8 on the engine's recorded calls: the sharper bounds below
+ * tested at every step (14.5 instead of 18.5 steps, but 9–16 % more time for the arithmetic per
+ * step), the matching lower bound F ≥ S + P_(j_lo) · max(0, R − geometric bound on U_hi) even every
+ * fourth step, and one reciprocal for the two upward ratios instead of two divisions.
  */
 export function noncentralCdfAtLeast(x: number, df: number, lambda: number, target: number): boolean {
   const TAIL = 1e-13;
@@ -140,9 +139,16 @@ export function noncentralCdfAtLeast(x: number, df: number, lambda: number, targ
   for (let step = 1; step < MAX_TERMS; step++) {
     if (sum >= target) return true;
     if (sum + unseen < limit) return false;
-    // Whether a direction's remainder is below TAIL only matters once the answer is close, so it is
-    // tested every fourth step; stepping on past that point only adds negligible terms.
+    // Every fourth step, a sharper upper bound and the TAIL tests. Sharper bound: every P_j above the
+    // window is at most α = P_(j_hi), so with U_hi + U_lo = R the Poisson mass above and below the
+    // window, F ≤ S + α U_hi + U_lo = S + α R + (1 − α) U_lo. The ratios w_(j−1)/w_j = j/μ fall as j
+    // does, so for j_lo < μ, w_(j_lo−k) ≤ w_(j_lo) (j_lo/μ)^k and U_lo ≤ w_(j_lo) j_lo/(μ − j_lo) (the
+    // geometric series, k ≥ 1); written cross-multiplied. It decides a test a few steps sooner, but
+    // costs more than it saves when evaluated every step. Whether a direction's remainder is below
+    // TAIL only matters once the answer is close; stepping on past that point adds negligible terms.
     if ((step & 3) === 0) {
+      const gap = limit - sum - pUp * unseen;
+      if (gap > 0 && jDown < mu && (1 - pUp) * wDown * jDown < gap * (mu - jDown)) return false;
       if ((jUp + 1 > mu && wUp * pUp * mu < TAIL * (jUp + 1 - mu)) || wUp === 0 || pUp === 0) upDone = true;
       if (wDown * jDown < TAIL * (mu - jDown) || wDown === 0) downDone = true;
       if (upDone && downDone) break;

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { chisqCdf, chisqUpperQuantile, chisqUpperTail } from "@/lib/recheck/distributions/chisq";
-import { logGamma, regularizedGammaP, regularizedGammaQ } from "@/lib/recheck/distributions/gamma";
+import { gammaPrefactor, logGamma, lowerSeriesWithin, regularizedGammaP, regularizedGammaQ } from "@/lib/recheck/distributions/gamma";
 import { noncentralCdfAtLeast, noncentralChisqCdf, noncentralityForCdf } from "@/lib/recheck/distributions/noncentral";
 import { reference } from "./reference";
 
@@ -154,6 +154,24 @@ describe("chisqUpperTail over df 1…10 000 and p down to 1e-300 (DESIGN §4.2)"
 });
 
 describe("incomplete gamma identities", () => {
+  it("the truncated power series brackets P: P̃ ≤ P ≤ P̃ + tolerance", () => {
+    // The full evaluation (relative error ~1e-16) is the reference; 1e-15 allows for its rounding.
+    let cases = 0;
+    for (const a of [0.5, 1, 3.5, 22, 48.5, 300, 5000]) {
+      for (const x of [0.01, 0.1 * a, a - 2 * Math.sqrt(a), a - 0.5, a, a + 0.99]) {
+        if (!(x > 0)) continue;
+        const p = regularizedGammaP(a, x);
+        for (const tolerance of [1e-3, 1e-7, 1e-12]) {
+          const lower = lowerSeriesWithin(a, x, gammaPrefactor(a, x), tolerance);
+          expect(lower).toBeLessThanOrEqual(p + 1e-15);
+          expect(p).toBeLessThanOrEqual(lower + tolerance + 1e-15);
+          cases++;
+        }
+      }
+    }
+    expect(cases).toBeGreaterThan(100);
+  });
+
   it("P + Q = 1 across the series / continued-fraction switch", () => {
     for (const a of [0.5, 1, 3.7, 12, 50.5, 400]) {
       for (const x of [0.1, a * 0.5, a, a + 1, a + 1.0001, a * 2 + 3]) expect(regularizedGammaP(a, x) + regularizedGammaQ(a, x)).toBeCloseTo(1, 14);
@@ -247,6 +265,48 @@ describe("noncentralChisqCdf (Poisson-mixture series)", () => {
       checked++;
     }
     expect(checked).toBeGreaterThan(19_000);
+  });
+
+  // Source: computed for this test with mpmath 1.3.0 at 40 digits by the same Poisson-mixture
+  // definition as NONCENTRAL above, summed over ±(40√(λ/2 + 1) + 60) terms around the mode (not R).
+  // The points cover P at the mode from the power series and from the continued fraction, λ = 1e-6
+  // (mode 0), df = 1, df = 2000, and λ up to 59 000; (12000, 500, 11000) reproduces NONCENTRAL's value.
+  const NEAR_TARGET: Array<[number, number, number, string]> = [
+    [50, 40, 12, "0.45679266899074239907"],
+    [90.575, 69, 48.168831, "0.063049199570345731087"],
+    [120, 40, 30, "0.99879834037061041196"],
+    [30, 24, 1e-6, "0.81524815954644978799"],
+    [2, 1, 3, "0.37447734620034813102"],
+    [0.5, 3, 0.2, "0.074105308376853737673"],
+    [2100, 2000, 100, "0.50419180656231929192"],
+    [453.255, 96, 288.034152, "0.96625426426509507273"],
+    [12000, 500, 11000, "0.99025994133674901668"],
+    [60000, 100, 59000, "0.96761806238355089579"],
+  ];
+  it.each(NEAR_TARGET)("F(%s; df = %s, λ = %s) ≥ target is decided right 1e-3, 1e-6 and 1e-9 either side of F", (x, df, lambda, want) => {
+    // 1e-9 lies inside the first pass's allowance for a coarse P (1e-7), so it also takes the full sum.
+    const f = Number(want);
+    for (const delta of [1e-3, 1e-6, 1e-9]) {
+      expect(noncentralCdfAtLeast(x, df, lambda, f - delta)).toBe(true);
+      expect(noncentralCdfAtLeast(x, df, lambda, f + delta)).toBe(false);
+    }
+  });
+
+  it("decides right next to the full sum for small modes (the direct Poisson weight) and at λ = 0", () => {
+    for (const lambda of [0, 1e-9, 0.6, 2, 5, 13, 19.98, 20, 21]) {
+      for (const df of [1, 4, 24, 150]) {
+        for (const z of [-2, 0, 2]) {
+          const x = df + lambda + z * Math.sqrt(2 * (df + 2 * lambda));
+          if (!(x > 0)) continue;
+          const f = noncentralChisqCdf(x, df, lambda);
+          if (f < 1e-6 || f > 1 - 1e-6) continue;
+          for (const delta of [1e-4, 1e-9]) {
+            expect(noncentralCdfAtLeast(x, df, lambda, f - delta)).toBe(true);
+            expect(noncentralCdfAtLeast(x, df, lambda, f + delta)).toBe(false);
+          }
+        }
+      }
+    }
   });
 
   it("gives λ = 0 when the χ² is too small to bound the interval away from zero", () => {
