@@ -1,14 +1,16 @@
 // The recheck command line (DESIGN §4.5), run as a child process exactly as `npm run recheck` runs it.
 import { execFile, spawn } from "node:child_process";
 import { once } from "node:events";
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import Papa from "papaparse";
 import { afterAll, describe, expect, it } from "vitest";
-import { readSheet, sheetHeaderLine, sheetRecordLine } from "@/lib/csv";
-import { ENGINE_VERSION } from "@/lib/recheck";
+import { checkSheetRow, csvLine, mergeFieldErrors, readSheet, sheetHeaderLine, sheetRecordLine, toComparisonInput, type SheetRecord } from "@/lib/csv";
+import { ENGINE_VERSION, recheck } from "@/lib/recheck";
+import type { ComparisonInput } from "@/lib/recheck/types";
+import { generateComparisons } from "../../support/generate-comparisons";
 
 const ROOT = fileURLToPath(new URL("../../..", import.meta.url));
 const TSX = join(ROOT, "node_modules", ".bin", "tsx");
@@ -189,5 +191,116 @@ describe("recheck command line: output into a pipe", () => {
     expect(JSON.parse(first.toString().split("\n")[0])).toMatchObject({ row: 1 });
     expect(status).toBe(0);
     expect(stderr).toBe("");
+  });
+});
+
+/**
+ * What the command must print for a sheet, made the plain way: JSON.stringify of each §4.5 object and
+ * csvLine of each CSV line. The command assembles its lines from parts and encodes them into buffers of
+ * its own, so this is the reading it is held to, byte for byte.
+ */
+async function expectedOutput(file: string, format: "jsonl" | "csv"): Promise<string> {
+  let text = format === "csv" ? csvLine(["row", "comparison", "outcome", "code", "severity", "subject", "column", "message", "engine_version"]) : "";
+  for await (const row of readSheet([readFileSync(file)])) {
+    const comparison = row.comparison.label ?? null;
+    const sheetErrors = checkSheetRow(row);
+    const outcome = row.problems.length > 0 ? null : recheck(toComparisonInput(row));
+    const errors = outcome && !outcome.ok ? mergeFieldErrors(sheetErrors, outcome.errors) : sheetErrors;
+    if (errors.length > 0 || !outcome?.ok) {
+      if (format === "jsonl") text += JSON.stringify({ row: row.row, comparison, errors }) + "\n";
+      else for (const e of errors) text += csvLine([String(row.row), comparison ?? "", "error", "", "", "", e.column, e.message, ""]);
+      continue;
+    }
+    const { findings, skipped, recomputed, engineVersion } = outcome.result;
+    if (format === "jsonl") {
+      const brief = findings.map((f) => ({ code: f.code, severity: f.severity, message: f.message }));
+      text += JSON.stringify({ row: row.row, comparison, findings: brief, skipped, recomputed, engineVersion }) + "\n";
+    } else if (findings.length === 0) {
+      text += csvLine([String(row.row), comparison ?? "", "clean", "", "", "", "", "", engineVersion]);
+    } else {
+      for (const f of findings) text += csvLine([String(row.row), comparison ?? "", "finding", f.code, f.severity, f.subject, "", f.message, engineVersion]);
+    }
+  }
+  return text;
+}
+
+/** Equal texts; when not, the first difference with a little context (not a 600 KB diff). */
+function expectSameText(actual: string, expected: string, what = "output"): void {
+  if (actual === expected) return;
+  let at = 0;
+  while (at < actual.length && actual[at] === expected[at]) at++;
+  const around = (text: string) => JSON.stringify(text.slice(Math.max(0, at - 60), at + 60));
+  expect.fail(`${what} differs at character ${at} of ${expected.length}: got ${around(actual)}, expected ${around(expected)}`);
+}
+
+/** Labels that JSON must escape or that take more than one byte (or unit) per character. */
+const AWKWARD_LABELS = ['say "yes"', "back\\slash", "tab\there", "bell\u0007", "😀 χ² Δ − × √", "line\u2028separator", "=SUM(A1)", "é"];
+
+/** A sheet of generated comparisons, some with awkward labels and one with a label far longer than a write buffer. */
+function generatedSheet(rows: number, seed: number): string {
+  const record = (input: ComparisonInput, i: number): SheetRecord => {
+    const { sample, restricted, free, ...comparison } = input;
+    let label = `Comparison ${i + 1} ${AWKWARD_LABELS[i % AWKWARD_LABELS.length]}`;
+    // 300 000 two-byte characters: 600 000 bytes of UTF-8, more than one output buffer holds
+    if (i === 5) label = "χ".repeat(300_000);
+    return {
+      paper: { doi: `10.5555/cli.${Math.floor(i / 4)}`, title: "An invented paper, with a comma", year: "2001" },
+      sample: { label: "Sample 1", ...sample },
+      comparison: { ...comparison, label },
+      restricted: { label: "Model A", ...restricted },
+      free: { label: "Model B", ...free },
+    };
+  };
+  let text = sheetHeaderLine();
+  generateComparisons({ count: rows, seed }).forEach((input, i) => (text += sheetRecordLine(record(input, i))));
+  return text;
+}
+
+describe("recheck command line: the exact bytes", () => {
+  const repoSheets = [
+    ...readdirSync(join(ROOT, SHEETS)).map((name) => join(SHEETS, name)),
+    ...readdirSync(join(ROOT, "imports")).map((name) => join("imports", name)),
+  ].filter((name) => name.endsWith(".csv"));
+
+  for (const format of ["jsonl", "csv"] as const) {
+    it(`writes for every fixture and example sheet what the plain ${format} reading gives`, { timeout: TIMEOUT * 2 }, async () => {
+      let compared = 0;
+      for (const name of repoSheets) {
+        const run = await recheckCli(name, "--format", format);
+        if (run.status !== 0) continue; // the refused fixtures: their messages are tested above
+        expectSameText(run.stdout, await expectedOutput(join(ROOT, name), format), name);
+        compared++;
+      }
+      expect(compared).toBeGreaterThanOrEqual(4);
+    });
+
+    it(`writes generated comparisons with awkward and very long labels exactly (${format})`, { timeout: TIMEOUT }, async () => {
+      const file = join(scratch, `generated-${format}.csv`);
+      writeFileSync(file, generatedSheet(400, 11));
+      const run = await recheckCli(file, "--format", format);
+      expect(run.stderr).toBe("");
+      expectSameText(run.stdout, await expectedOutput(file, format));
+      if (format === "jsonl") expect(jsonLines(run.stdout)[5].comparison === "χ".repeat(300_000)).toBe(true);
+    });
+  }
+
+  it("writes the same bytes into a pipe that is read slowly (it waits for the reader, and loses nothing)", { timeout: TIMEOUT }, async () => {
+    const file = join(scratch, "slow-reader.csv");
+    writeFileSync(file, generatedSheet(3000, 12));
+    const child = spawn(TSX, ["lib/cli/recheck.ts", file], { cwd: ROOT, stdio: ["ignore", "pipe", "pipe"] });
+    let stderr = "";
+    child.stderr.on("data", (chunk: Buffer) => (stderr += chunk.toString()));
+    // read a chunk, then leave the pipe full for a moment, until the command is done
+    const chunks: Buffer[] = [];
+    child.stdout.on("data", (chunk: Buffer) => {
+      chunks.push(chunk);
+      child.stdout.pause();
+      setTimeout(() => child.stdout.resume(), 2);
+    });
+    const [status] = (await once(child, "close")) as [number];
+    expect(stderr).toBe("");
+    expect(status).toBe(0);
+    expect(chunks.length).toBeGreaterThan(10);
+    expectSameText(Buffer.concat(chunks).toString(), await expectedOutput(file, "jsonl"));
   });
 });
