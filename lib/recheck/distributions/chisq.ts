@@ -65,9 +65,9 @@ export function chisqUpperQuantile(p: number, df: number): number {
 
 /**
  * Upper quantile of the standard normal by Acklam's (2003) rational approximation (relative error
- * ~1e-9), used only as a starting value.
+ * ~1e-9), used only as a starting value (here and by noncentralityForCdf).
  */
-function standardNormalUpperQuantile(p: number): number {
+export function standardNormalUpperQuantile(p: number): number {
   const a = [-39.69683028665376, 220.9460984245205, -275.9285104469687, 138.357751867269, -30.66479806614716, 2.506628277459239];
   const b = [-54.47609879822406, 161.5858368580409, -155.6989798598866, 66.80131188771972, -13.28068155288572];
   const c = [-0.007784894002430293, -0.3223964580411365, -2.400758277161838, -2.549732539343734, 4.374664141464968, 2.938163982698783];

@@ -365,4 +365,25 @@ describe("noncentralChisqCdf (Poisson-mixture series)", () => {
     // F(10; 24, 0) ≈ .005 < .95, so no positive λ reaches .95 (Browne & Cudeck 1993's lower bound of 0).
     expect(noncentralityForCdf(10, 24, 0.95)).toBe(0);
   });
+
+  it("finds roots where F(x; df, λ) equals the target within 1e-11, over 2 000 seeded random points", () => {
+    // The defining property of the root, checked with the series itself (which the mpmath points above
+    // hold to 1e-12); covers small and large df, χ² far below and above df, and both interval ends.
+    let state = 4242;
+    const random = () => (state = (state * 16807) % 2147483647) / 2147483647;
+    let positive = 0;
+    for (let i = 0; i < 2000; i++) {
+      const df = 1 + Math.floor(random() ** 2 * 2000);
+      const x = df * (0.3 + 4 * random()) + 0.5;
+      const target = random() < 0.5 ? 0.95 : 0.05;
+      const lambda = noncentralityForCdf(x, df, target);
+      if (lambda === 0) {
+        expect(noncentralChisqCdf(x, df, 0)).toBeLessThanOrEqual(target);
+        continue;
+      }
+      positive++;
+      expect(Math.abs(noncentralChisqCdf(x, df, lambda) - target)).toBeLessThan(1e-11);
+    }
+    expect(positive).toBeGreaterThan(1500);
+  });
 });
