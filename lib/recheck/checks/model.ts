@@ -40,8 +40,9 @@ const scalingFactor = scalingFactorImport;
 const showPInterval = showPIntervalImport;
 const upperTailInterval = upperTailIntervalImport;
 
-// recomputed-figure keys per subject, written out as literals: a key built at run time (`${subject}.p`)
-// is not internalised, and every keyed store with it first looks it up in V8's string table.
+// recomputed-figure keys per subject, written out as literals (typed as RecomputedKey by Report.set): a
+// key built at run time (`${subject}.p`) is not internalised, so Report.set's cases would compare it
+// character by character instead of by reference.
 const KEYS_A = {
   p: "a.p",
   rmsea: "a.rmsea",
