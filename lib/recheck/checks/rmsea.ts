@@ -11,7 +11,7 @@
 // interval meets the recomputed one iff the CDF condition changes sign across it (two CDF evaluations).
 // Roots are only found, lazily, to report the recomputed interval when nothing matched.
 import {
-  noncentralCdfAtLeast as noncentralCdfAtLeastImport,
+  noncentralCdfSignsAre as noncentralCdfSignsAreImport,
   noncentralityForCdf as noncentralityForCdfImport,
 } from "../distributions/noncentral";
 import { meets as meetsImport, show as showImport, showInterval as showIntervalImport } from "../interval";
@@ -21,7 +21,7 @@ import type { Interval } from "../types";
 // Imported functions bound once: under tsx (CommonJS output, as the CLI runs) each call to an import
 // otherwise goes through an export getter, which showed up in the engine benchmark's profile.
 const meets = meetsImport;
-const noncentralCdfAtLeast = noncentralCdfAtLeastImport;
+const noncentralCdfSignsAre = noncentralCdfSignsAreImport;
 const noncentralityForCdf = noncentralityForCdfImport;
 const show = showImport;
 const showInterval = showIntervalImport;
@@ -190,21 +190,6 @@ export function matchRmseaPoint(printed: PrintedNumber, conventions: RmseaConven
 
 const SLACK = 1e-12;
 
-/**
- * Does a printed CI bound (interval [lo, hi] in RMSEA units) meet the bound recomputed at level
- * `target` (.95 for the lower bound, .05 for the upper)? Sign test at the two corners (see file comment).
- */
-function boundMeets(printed: PrintedNumber, target: number, convention: RmseaConvention): boolean {
-  const { high, low } = convention;
-  // printed.lo ≤ recomputed maximum  ⇔  F(x_high; df, λ(printed.lo)) ≥ target (or λ = 0)
-  const lambdaLo = printed.lo > 0 ? printed.lo * printed.lo * high.k : 0;
-  if (lambdaLo > 0 && (!(high.x > 0) || !noncentralCdfAtLeast(high.x, high.df, lambdaLo, target - SLACK))) return false;
-  // printed.hi ≥ recomputed minimum  ⇔  F(x_low; df, λ(printed.hi)) ≤ target
-  const lambdaHi = printed.hi * printed.hi * low.k;
-  if (low.x <= 0) return true; // χ² interval reaches 0: the recomputed bound can be 0
-  return !noncentralCdfAtLeast(low.x, low.df, lambdaHi, target + SLACK);
-}
-
 /** First convention (trying `first` before the rest) under which every printed bound is reproduced. */
 export function matchRmseaInterval(
   lower: PrintedNumber | null,
@@ -217,9 +202,34 @@ export function matchRmseaInterval(
   return -1;
 }
 
-/** Both printed bounds (where printed) are reproduced under this convention. */
+/**
+ * Both printed bounds (where printed) are reproduced under this convention: each printed bound's
+ * interval [lo, hi] (in RMSEA units) meets the bound recomputed at level .95 (lower) or .05 (upper).
+ * Sign tests at the two corners (see file comment):
+ *   printed.lo ≤ recomputed maximum  ⇔  F(x_high; df, λ(printed.lo)) ≥ level (or λ = 0),
+ *   printed.hi ≥ recomputed minimum  ⇔  F(x_low; df, λ(printed.hi)) < level (or x_low ≤ 0: the χ²
+ *   interval reaches 0, so the recomputed bound can be 0).
+ * The lower and the upper bound are tested at the same corner together, so that the second test can
+ * start from where the first left the series (noncentralCdfSignsAre).
+ */
 export function intervalMeets(lower: PrintedNumber | null, upper: PrintedNumber | null, convention: RmseaConvention): boolean {
-  return (lower === null || boundMeets(lower, 0.95, convention)) && (upper === null || boundMeets(upper, 0.05, convention));
+  const { high, low } = convention;
+  const lambdaLowerLo = lower !== null && lower.lo > 0 ? lower.lo * lower.lo * high.k : 0;
+  const lambdaUpperLo = upper !== null && upper.lo > 0 ? upper.lo * upper.lo * high.k : 0;
+  if (lambdaLowerLo > 0 || lambdaUpperLo > 0) {
+    if (!(high.x > 0)) return false;
+    const met =
+      lambdaLowerLo > 0
+        ? noncentralCdfSignsAre(high.x, high.df, lambdaLowerLo, 0.95 - SLACK, lambdaUpperLo > 0 ? lambdaUpperLo : Number.NaN, 0.05 - SLACK, true)
+        : noncentralCdfSignsAre(high.x, high.df, lambdaUpperLo, 0.05 - SLACK, Number.NaN, 0, true);
+    if (!met) return false;
+  }
+  if (low.x <= 0) return true;
+  if (lower !== null) {
+    const lambdaUpperHi = upper !== null ? upper.hi * upper.hi * low.k : Number.NaN;
+    return noncentralCdfSignsAre(low.x, low.df, lower.hi * lower.hi * low.k, 0.95 + SLACK, lambdaUpperHi, 0.05 + SLACK, false);
+  }
+  return upper === null || noncentralCdfSignsAre(low.x, low.df, upper.hi * upper.hi * low.k, 0.05 + SLACK, Number.NaN, 0, false);
 }
 
 /** The recomputed 90 % interval at the convention's central values (root finding: only on mismatch). */

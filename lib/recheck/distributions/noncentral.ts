@@ -109,16 +109,37 @@ function poissonAtMode(mu: number, mode: number): number {
 
 /**
  * Is F(x; df, λ) ≥ target? The same series, summed outwards from the mode alternately up and down, and
+ * stopped as soon as the answer is certain (see noncentralCdfSignsAre, which does the work).
+ */
+export function noncentralCdfAtLeast(x: number, df: number, lambda: number, target: number): boolean {
+  return noncentralCdfSignsAre(x, df, lambda, target, Number.NaN, 0, true);
+}
+
+/**
+ * Are both tests F(x; df, λ1) ≥ target1 and F(x; df, λ2) ≥ target2 answered `atLeast`? (λ2 = NaN: the
+ * first test alone.) Used for the RMSEA interval checks, whose two printed bounds are each tested at the
+ * same χ² corner (see intervalMeets in checks/rmsea.ts).
+ *
+ * Each test is the Poisson-mixture series, summed outwards from the mode alternately up and down, and
  * stopped as soon as the answer is certain: the partial sum S only grows, and what is left is at most the
  * Poisson mass not yet visited (each P ≤ 1), so F ∈ [S, S + 1 − W] with W the weights summed so far.
  * A bound that is not close to the target is decided after a few standard deviations of the Poisson
- * weights instead of the ±7σ a full evaluation needs. Used for the RMSEA interval checks.
+ * weights instead of the ±7σ a full evaluation needs.
  *
  * Where P at the mode comes from the power series (y < a + mode + 1), it is taken to within COARSE only
  * (lowerSeriesWithin: under half the terms of a full evaluation on the engine's calls). Every P_j is
  * then P_mode plus exact differences, so each is short of its true value by at most COARSE and
  * F ∈ [S, S + 1 − W + COARSE] (the weights sum to 1). Only a test still undecided when the series has
  * converged, i.e. F within COARSE of the target, is decided by the full sum instead.
+ *
+ * The two tests share x and df, so P(a + j, y) is the same function of j in both. The second test's P at
+ * its own mode is therefore walked to, by the same exact recurrences, from the nearest index the first
+ * test reached (its mode, or either end of its window) when that is at most WALK steps away: a step costs
+ * one division, a fresh start (the prefactor's exp and log1p, then the power series or continued
+ * fraction) about as much as 60. The walked P carries the first start's error bound (short by at most
+ * COARSE after the series, near-exact after the continued fraction), so the same certified stopping
+ * rules apply with that start's slack. A start whose term has (nearly) underflowed, far in a tail, is
+ * not walked from: the recurrence could not bring back the precision lost there.
  *
  * Tried and dropped, as no faster or slower under V8 on the engine's recorded calls: the loop's sharper
  * upper bound and the lower bound below tested at every step (14.5 instead of 18.5 steps, but 9–16 %
@@ -128,80 +149,153 @@ function poissonAtMode(mu: number, mode: number): number {
  * above ½, down below: 30 % fewer terms, but more passes through the loop, or twice the code when
  * unrolled, for no measurable gain); one reciprocal for the two upward ratios instead of two divisions.
  */
-export function noncentralCdfAtLeast(x: number, df: number, lambda: number, target: number): boolean {
+export function noncentralCdfSignsAre(
+  x: number,
+  df: number,
+  lambda1: number,
+  target1: number,
+  lambda2: number,
+  target2: number,
+  atLeast: boolean,
+): boolean {
   const TAIL = 1e-13;
   const MAX_TERMS = 100_000;
   const COARSE = 1e-7;
-  if (x <= 0) return target <= 0;
+  const WALK = 64;
   const a = df / 2;
   const y = x / 2;
-  if (lambda <= 0) return regularizedGammaP(a, y) >= target;
-  const mu = lambda / 2;
-  const mode = Math.floor(mu);
-  const weightAtMode = poissonAtMode(mu, mode);
-  const prefactor = gammaPrefactor(a + mode, y);
-  const termAtMode = prefactor / (a + mode);
   const inverseY = 1 / y;
-  const inverseMu = 1 / mu;
-  // The power series' partial sum is a lower bound on P at the mode, within COARSE; the continued
-  // fraction's value is taken as exact (its error is of the order of the series' TAIL).
-  const slack = y < a + mode + 1 ? COARSE : 0;
-  const pAtMode = slack > 0 ? lowerSeriesWithin(a + mode, y, prefactor, COARSE) : lowerWithPrefactor(a + mode, y, prefactor);
-  const limit = target - slack;
-  let sum = weightAtMode * pAtMode;
-  let unseen = 1 - weightAtMode;
-  let wUp = weightAtMode;
-  let pUp = pAtMode;
-  let tUp = termAtMode;
-  let jUp = mode;
-  let upDone = false;
-  let wDown = weightAtMode;
-  let pDown = pAtMode;
-  let tDown = termAtMode;
-  let jDown = mode;
-  let downDone = mode === 0;
-  for (let step = 1; step < MAX_TERMS; step++) {
-    if (sum >= target) return true;
-    if (sum + unseen < limit) return false;
-    // Every fourth step, a sharper upper bound and the TAIL tests. Sharper bound: every P_j above the
-    // window is at most α = P_(j_hi), so with U_hi + U_lo = R the Poisson mass above and below the
-    // window, F ≤ S + α U_hi + U_lo = S + α R + (1 − α) U_lo. The ratios w_(j−1)/w_j = j/μ fall as j
-    // does, so for j_lo < μ, w_(j_lo−k) ≤ w_(j_lo) (j_lo/μ)^k and U_lo ≤ w_(j_lo) j_lo/(μ − j_lo) (the
-    // geometric series, k ≥ 1); written cross-multiplied. It decides a test a few steps sooner, but
-    // costs more than it saves when evaluated every step. Whether a direction's remainder is below
-    // TAIL only matters once the answer is close; stepping on past that point adds negligible terms.
-    if ((step & 3) === 0) {
-      const gap = limit - sum - pUp * unseen;
-      if (gap > 0 && jDown < mu && (1 - pUp) * wDown * jDown < gap * (mu - jDown)) return false;
-      if ((jUp + 1 > mu && wUp * pUp * mu < TAIL * (jUp + 1 - mu)) || wUp === 0 || pUp === 0) upDone = true;
-      if (wDown * jDown < TAIL * (mu - jDown) || wDown === 0) downDone = true;
-      if (upDone && downDone) break;
+  // What the previous test left: P̃ and t at its mode and at both ends of its window, and their slack.
+  let known = false;
+  let slack = 0;
+  let jStart = 0;
+  let pStart = 0;
+  let tStart = 0;
+  let jUp = 0;
+  let pUp = 0;
+  let tUp = 0;
+  let jDown = 0;
+  let pDown = 0;
+  let tDown = 0;
+  for (let test = 0; test < 2; test++) {
+    const lambda = test === 0 ? lambda1 : lambda2;
+    const target = test === 0 ? target1 : target2;
+    if (test === 1 && Number.isNaN(lambda)) break;
+    let answer: boolean;
+    if (x <= 0) {
+      answer = target <= 0;
+    } else if (lambda <= 0) {
+      answer = regularizedGammaP(a, y) >= target;
+    } else {
+      const mu = lambda / 2;
+      const mode = Math.floor(mu);
+      const weightAtMode = poissonAtMode(mu, mode);
+      // Start from the nearest index the previous test reached, if there is one close enough.
+      let j = jStart;
+      let p = pStart;
+      let t = tStart;
+      if (known && mode >= jUp) {
+        j = jUp;
+        p = pUp;
+        t = tUp;
+      } else if (known && mode <= jDown) {
+        j = jDown;
+        p = pDown;
+        t = tDown;
+      }
+      if (known && t > 1e-300 && Math.abs(mode - j) <= WALK) {
+        for (; j < mode; j++) {
+          p -= t;
+          t *= y / (a + j + 1);
+        }
+        for (; j > mode; j--) {
+          t *= (a + j) * inverseY;
+          p += t;
+        }
+      } else {
+        const prefactor = gammaPrefactor(a + mode, y);
+        // The power series' partial sum is a lower bound on P at the mode, within COARSE; the continued
+        // fraction's value is taken as exact (its error is of the order of the series' TAIL).
+        slack = y < a + mode + 1 ? COARSE : 0;
+        p = slack > 0 ? lowerSeriesWithin(a + mode, y, prefactor, COARSE) : lowerWithPrefactor(a + mode, y, prefactor);
+        t = prefactor / (a + mode);
+      }
+      known = true;
+      jStart = mode;
+      pStart = p;
+      tStart = t;
+      const inverseMu = 1 / mu;
+      const limit = target - slack;
+      let sum = weightAtMode * p;
+      let unseen = 1 - weightAtMode;
+      let wUp = weightAtMode;
+      pUp = p;
+      tUp = t;
+      jUp = mode;
+      let upDone = false;
+      let wDown = weightAtMode;
+      pDown = p;
+      tDown = t;
+      jDown = mode;
+      let downDone = mode === 0;
+      // 1: F ≥ target certain, −1: F < target certain, 0: the series converged first.
+      let decided = 0;
+      for (let step = 1; step < MAX_TERMS; step++) {
+        if (sum >= target) {
+          decided = 1;
+          break;
+        }
+        if (sum + unseen < limit) {
+          decided = -1;
+          break;
+        }
+        // Every fourth step, a sharper upper bound and the TAIL tests. Sharper bound: every P_j above the
+        // window is at most α = P_(j_hi), so with U_hi + U_lo = R the Poisson mass above and below the
+        // window, F ≤ S + α U_hi + U_lo = S + α R + (1 − α) U_lo. The ratios w_(j−1)/w_j = j/μ fall as j
+        // does, so for j_lo < μ, w_(j_lo−k) ≤ w_(j_lo) (j_lo/μ)^k and U_lo ≤ w_(j_lo) j_lo/(μ − j_lo) (the
+        // geometric series, k ≥ 1); written cross-multiplied. It decides a test a few steps sooner, but
+        // costs more than it saves when evaluated every step. Whether a direction's remainder is below
+        // TAIL only matters once the answer is close; stepping on past that point adds negligible terms.
+        if ((step & 3) === 0) {
+          const gap = limit - sum - pUp * unseen;
+          if (gap > 0 && jDown < mu && (1 - pUp) * wDown * jDown < gap * (mu - jDown)) {
+            decided = -1;
+            break;
+          }
+          if ((jUp + 1 > mu && wUp * pUp * mu < TAIL * (jUp + 1 - mu)) || wUp === 0 || pUp === 0) upDone = true;
+          if (wDown * jDown < TAIL * (mu - jDown) || wDown === 0) downDone = true;
+          if (upDone && downDone) break;
+        }
+        // No clamping of P_j to [0, 1] here, unlike the full sum: the recurrences can leave that range only
+        // by rounding (of the order of 1e-16 per step, far below TAIL), and the two tests cost 2–5 %.
+        if (!upDone) {
+          pUp -= tUp;
+          tUp *= y / (a + jUp + 1);
+          wUp *= mu / (jUp + 1);
+          jUp++;
+          sum += wUp * pUp;
+          unseen -= wUp;
+        }
+        if (!downDone) {
+          tDown *= (a + jDown) * inverseY;
+          pDown += tDown;
+          wDown *= jDown * inverseMu;
+          jDown--;
+          sum += wDown * pDown;
+          unseen -= wDown;
+          if (jDown === 0) downDone = true;
+        }
+      }
+      // Converged to TAIL: with P at the mode exact that is the answer; otherwise F lies within COARSE
+      // of the target, which is rare, and the full sum decides. (A second pass of this loop with the
+      // precise P, tried first, made V8 recompile the function into slower code once it had run.)
+      if (decided !== 0) answer = decided > 0;
+      else if (slack === 0 || sum + slack < target) answer = sum >= target;
+      else answer = noncentralChisqCdf(x, df, lambda) >= target;
     }
-    // No clamping of P_j to [0, 1] here, unlike the full sum: the recurrences can leave that range only
-    // by rounding (of the order of 1e-16 per step, far below TAIL), and the two tests cost 2–5 %.
-    if (!upDone) {
-      pUp -= tUp;
-      tUp *= y / (a + jUp + 1);
-      wUp *= mu / (jUp + 1);
-      jUp++;
-      sum += wUp * pUp;
-      unseen -= wUp;
-    }
-    if (!downDone) {
-      tDown *= (a + jDown) * inverseY;
-      pDown += tDown;
-      wDown *= jDown * inverseMu;
-      jDown--;
-      sum += wDown * pDown;
-      unseen -= wDown;
-      if (jDown === 0) downDone = true;
-    }
+    if (answer !== atLeast) return false;
   }
-  // The series has converged to TAIL. With P at the mode exact that is the answer; otherwise F lies
-  // within COARSE of the target, which is rare, and the full sum decides. (A second pass of this loop
-  // with the precise P, tried first, made V8 recompile the function into slower code once it had run.)
-  if (slack === 0 || sum + slack < target) return sum >= target;
-  return noncentralChisqCdf(x, df, lambda) >= target;
+  return true;
 }
 
 /**

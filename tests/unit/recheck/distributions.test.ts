@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { chisqCdf, chisqUpperQuantile, chisqUpperTail } from "@/lib/recheck/distributions/chisq";
 import { gammaPrefactor, logGamma, lowerSeriesWithin, regularizedGammaP, regularizedGammaQ } from "@/lib/recheck/distributions/gamma";
-import { noncentralCdfAtLeast, noncentralChisqCdf, noncentralityForCdf } from "@/lib/recheck/distributions/noncentral";
+import { noncentralCdfAtLeast, noncentralCdfSignsAre, noncentralChisqCdf, noncentralityForCdf } from "@/lib/recheck/distributions/noncentral";
 import { reference } from "./reference";
 
 const relativeError = (got: number, want: number) => Math.abs(got - want) / Math.abs(want);
@@ -342,6 +342,57 @@ describe("noncentralChisqCdf (Poisson-mixture series)", () => {
       expect(noncentralCdfAtLeast(x, df, lambda, f - delta)).toBe(true);
       expect(noncentralCdfAtLeast(x, df, lambda, f + delta)).toBe(false);
     }
+  });
+
+  // Source: computed for this test with mpmath 1.3.0 at 40 digits, by the same Poisson-mixture sum as
+  // NEAR_TARGET (not R). Two noncentralities at one (x, df), as the RMSEA interval check pairs them: the
+  // second test's P at its mode is walked to from the first test's window upwards (the benchmark's
+  // shape), downwards, across the switch from the power series to the continued fraction (200, 100),
+  // within one mode (50, 40), and started afresh when the modes are more than 64 apart (120, 40).
+  const PAIRS: Array<[number, number, number, string, number, string]> = [
+    [453.255, 96, 288.034152, "0.96625426426509507273", 422.5338, "0.062302960164803344777"],
+    [453.245, 96, 295.234728, "0.94864369569209283749", 431.245608, "0.041332752486781689128"],
+    [90.575, 69, 48.168831, "0.063049199570345731087", 30, "0.3129861300470183701"],
+    [120, 40, 30, "0.99879834037061041196", 200, "1.0027941987502322645e-6"],
+    [50, 40, 12, "0.45679266899074239907", 13, "0.42236536573946159107"],
+    [200, 100, 120, "0.22569258099610545521", 40, "0.99785387076365719771"],
+    [2100, 2000, 100, "0.50419180656231929192", 160, "0.18981119364297494269"],
+    [12000, 500, 11000, "0.99025994133674901668", 11100, "0.96896352267527969828"],
+  ];
+  it.each(PAIRS)("at x = %s, df = %s, both tests of a pair, λ = %s (F = %s) and λ = %s (F = %s), are decided right 1e-6 and 1e-9 either side of F", (x, df, lambda1, want1, lambda2, want2) => {
+    const [f1, f2] = [Number(want1), Number(want2)];
+    for (const delta of [1e-6, 1e-9]) {
+      expect(noncentralCdfSignsAre(x, df, lambda1, f1 - delta, lambda2, f2 - delta, true)).toBe(true);
+      expect(noncentralCdfSignsAre(x, df, lambda1, f1 - delta, lambda2, f2 + delta, true)).toBe(false);
+      expect(noncentralCdfSignsAre(x, df, lambda1, f1 + delta, lambda2, f2 + delta, false)).toBe(true);
+      expect(noncentralCdfSignsAre(x, df, lambda1, f1 + delta, lambda2, f2 - delta, false)).toBe(false);
+      // and with the roles swapped, so that the walk goes the other way
+      expect(noncentralCdfSignsAre(x, df, lambda2, f2 - delta, lambda1, f1 - delta, true)).toBe(true);
+      expect(noncentralCdfSignsAre(x, df, lambda2, f2 - delta, lambda1, f1 + delta, true)).toBe(false);
+    }
+  });
+
+  it("decides each test of a pair as the full sum does, on 20 000 seeded random pairs at one (x, df)", () => {
+    // Park & Miller (1988) minimal standard generator, so the points are the same on every run.
+    let state = 54321;
+    const random = () => (state = (state * 16807) % 2147483647) / 2147483647;
+    let checked = 0;
+    for (let i = 0; i < 20_000; i++) {
+      const df = 1 + Math.floor(random() * 300);
+      const lambda1 = random() * 400;
+      // the second noncentrality near the first (a walk) or anywhere (often a fresh start)
+      const lambda2 = random() < 0.7 ? Math.max(0, lambda1 + (random() - 0.3) * 150) : random() * 400;
+      const x = Math.max(0.01, df + lambda1 + (random() - 0.5) * 6 * Math.sqrt(2 * (df + 2 * lambda1)));
+      const f1 = noncentralChisqCdf(x, df, lambda1);
+      const f2 = noncentralChisqCdf(x, df, lambda2);
+      const t1 = Math.min(0.999, Math.max(0.001, f1 + (random() - 0.5) * 0.01));
+      const t2 = Math.min(0.999, Math.max(0.001, f2 + (random() - 0.5) * 0.01));
+      if (Math.abs(f1 - t1) < 1e-11 || Math.abs(f2 - t2) < 1e-11) continue; // closer than the series' own accuracy
+      const atLeast = random() < 0.5;
+      expect(noncentralCdfSignsAre(x, df, lambda1, t1, lambda2, t2, atLeast)).toBe(f1 >= t1 === atLeast && f2 >= t2 === atLeast);
+      if (f1 >= t1 === atLeast) checked++; // the second test was reached
+    }
+    expect(checked).toBeGreaterThan(9_000);
   });
 
   it("decides right next to the full sum for small modes (the direct Poisson weight) and at λ = 0", () => {
