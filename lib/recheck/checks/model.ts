@@ -1,11 +1,11 @@
 // A model's own checks (DESIGN §4.3): identification, its χ² p, RMSEA and CI, CFI/TLI, the df recount
 // and AIC/BIC from the log-likelihood. Used for both models of a comparison and for lone models.
-import { meets as meetsImport, showPInterval as showPIntervalImport } from "../interval";
+import { showPInterval as showPIntervalImport } from "../interval";
 import type { ParsedModel, ParsedSample } from "../parse";
 import type { Report } from "../report";
 import { judgeP as judgePImport, modelName as modelNameImport, upperTailInterval as upperTailIntervalImport } from "./common";
 import { checkModelCriteria as checkModelCriteriaImport } from "./criteria";
-import { scaledStatistic as scaledStatisticImport, scalingFactor as scalingFactorImport } from "./derived";
+import { type Derived, scaledStatistic as scaledStatisticImport, scalingFactor as scalingFactorImport } from "./derived";
 import { checkFitIndices as checkFitIndicesImport } from "./fit-indices";
 import {
   describeInterval as describeIntervalImport,
@@ -14,6 +14,10 @@ import {
   matchRmseaInterval as matchRmseaIntervalImport,
   matchRmseaPoint as matchRmseaPointImport,
   primaryConvention as primaryConventionImport,
+  primaryConventionName as primaryConventionNameImport,
+  primaryIntervalMeets as primaryIntervalMeetsImport,
+  primaryPoint as primaryPointImport,
+  primaryPointMeets as primaryPointMeetsImport,
   recomputeRmseaInterval as recomputeRmseaIntervalImport,
   rmseaConventions as rmseaConventionsImport,
   type RmseaConvention,
@@ -30,9 +34,12 @@ const intervalMeets = intervalMeetsImport;
 const judgeP = judgePImport;
 const matchRmseaInterval = matchRmseaIntervalImport;
 const matchRmseaPoint = matchRmseaPointImport;
-const meets = meetsImport;
 const modelName = modelNameImport;
 const primaryConvention = primaryConventionImport;
+const primaryConventionName = primaryConventionNameImport;
+const primaryIntervalMeets = primaryIntervalMeetsImport;
+const primaryPoint = primaryPointImport;
+const primaryPointMeets = primaryPointMeetsImport;
 const recomputeRmseaInterval = recomputeRmseaIntervalImport;
 const rmseaConventions = rmseaConventionsImport;
 const scaledStatistic = scaledStatisticImport;
@@ -151,15 +158,87 @@ function checkRmsea(ctx: ModelCheckContext, df: number): void {
     report.skip("rmsea-mismatch", subject, "no RMSEA printed");
     return;
   }
-  if (sample.n === null) {
+  const n = sample.n;
+  if (n === null) {
     report.skip("rmsea-mismatch", subject, "N not reported");
     return;
   }
   const scaled = m.robust ? scaledStatistic(m) : null;
+  // The primary convention (rmsea.ts) is tested from its statistic's interval without building it: a
+  // consistent model then allocates only the point interval it reports (and, when robust, the scaled
+  // χ²). The inputs, the convention objects and the full list are built only when that test fails.
+  const useScaled = scaled !== null;
+  const stat = scaled !== null ? scaled.interval : m.chisq;
+  if (stat === null) {
+    report.skip("rmsea-mismatch", subject, "no χ² printed to recompute the RMSEA from");
+    return;
+  }
+  const groups = sample.groups;
+  let inputs: RmseaInputs | null = null;
+  let conventions: RmseaConvention[] | null = null;
+  // The convention the interval is tried under first: the point estimate's when it matched one other
+  // than the primary (null: the primary).
+  let matched: RmseaConvention | null = null;
+  if (m.rmsea !== null) {
+    if (primaryPointMeets(m.rmsea, stat, df, n, groups)) {
+      report.set(keys.rmsea, primaryPoint(stat, df, n, groups));
+      report.set(keys.rmseaConvention, primaryConventionName(useScaled, groups));
+    } else {
+      inputs = rmseaInputs(m, n, groups, df, scaled);
+      conventions = rmseaConventions(inputs);
+      const index = matchRmseaPoint(m.rmsea, conventions);
+      if (index >= 0) {
+        matched = conventions[index];
+        report.set(keys.rmsea, matched.point);
+        report.set(keys.rmseaConvention, matched.name);
+      } else {
+        const primary = primaryConvention(inputs) as RmseaConvention; // stat is printed, so never null
+        const tried = conventions.map((c) => c.name).join("; ");
+        report.set(keys.rmsea, primary.point);
+        report.add(
+          "rmsea-mismatch",
+          subject,
+          `${modelName(subject, m.label)}: reported RMSEA = ${m.rmsea.text}, but the printed χ², df = ${df} and N = ${n} give ${describePoint(primary)}; no convention reproduces it (tried: ${tried})`,
+          { reported: m.rmsea.text, recomputed: primary.point, df, n, groups, conventionsTried: tried },
+        );
+      }
+    }
+  } else {
+    report.skip("rmsea-mismatch", subject, "no RMSEA point estimate printed");
+  }
+  if (m.rmseaLo === null && m.rmseaHi === null) {
+    report.skip("rmsea-interval-mismatch", subject, "no RMSEA interval printed");
+    return;
+  }
+  if (matched !== null ? intervalMeets(m.rmseaLo, m.rmseaHi, matched) : primaryIntervalMeets(m.rmseaLo, m.rmseaHi, stat, df, n, groups)) {
+    report.set(keys.rmseaIntervalConvention, matched !== null ? matched.name : primaryConventionName(useScaled, groups));
+    return;
+  }
+  inputs = inputs ?? rmseaInputs(m, n, groups, df, scaled);
+  conventions = conventions ?? rmseaConventions(inputs);
+  const index = matchRmseaInterval(m.rmseaLo, m.rmseaHi, conventions, -1);
+  if (index >= 0) {
+    report.set(keys.rmseaIntervalConvention, conventions[index].name);
+    return;
+  }
+  const first = matched ?? (primaryConvention(inputs) as RmseaConvention);
+  const recomputed = recomputeRmseaInterval(first);
+  report.set(keys.rmseaInterval, recomputed);
+  const printed = `[${m.rmseaLo?.text ?? "–"}, ${m.rmseaHi?.text ?? "–"}]`;
+  report.add(
+    "rmsea-interval-mismatch",
+    subject,
+    `${modelName(subject, m.label)}: reported 90 % RMSEA interval ${printed}, but inverting the noncentral χ² gives ${describeInterval(recomputed, first)}; no convention reproduces it (tried ${conventions.length})`,
+    { reportedLower: m.rmseaLo?.text ?? null, reportedUpper: m.rmseaHi?.text ?? null, recomputed, df, n, groups },
+  );
+}
+
+/** The printed figures every RMSEA convention is computed from (only built when the primary one fails). */
+function rmseaInputs(m: ParsedModel, n: number, groups: number, df: number, scaled: Derived | null): RmseaInputs {
   const scaling = m.robust ? scalingFactor(m) : null;
-  const inputs: RmseaInputs = {
-    n: sample.n,
-    groups: sample.groups,
+  return {
+    n,
+    groups,
     df,
     chisq: m.chisq,
     scaled: scaled === null ? null : scaled.interval,
@@ -169,62 +248,6 @@ function checkRmsea(ctx: ModelCheckContext, df: number): void {
     scaledValue: scaled === null ? null : scaled.value,
     scalingValue: scaling === null ? null : scaling.value,
   };
-  const primary = primaryConvention(inputs);
-  if (primary === null) {
-    report.skip("rmsea-mismatch", subject, "no χ² printed to recompute the RMSEA from");
-    return;
-  }
-  // The primary convention first; the full list of conventions only when it fails.
-  let conventions: RmseaConvention[] | null = null;
-  let matched: RmseaConvention | null = null;
-  if (m.rmsea !== null) {
-    if (meets(m.rmsea.lo, m.rmsea.hi, primary.point.lo, primary.point.hi)) {
-      matched = primary;
-    } else {
-      conventions = rmseaConventions(inputs);
-      const index = matchRmseaPoint(m.rmsea, conventions);
-      if (index >= 0) matched = conventions[index];
-    }
-    if (matched !== null) {
-      report.set(keys.rmsea, matched.point);
-      report.set(keys.rmseaConvention, matched.name);
-    } else {
-      const tried = (conventions ?? []).map((c) => c.name).join("; ");
-      report.set(keys.rmsea, primary.point);
-      report.add(
-        "rmsea-mismatch",
-        subject,
-        `${modelName(subject, m.label)}: reported RMSEA = ${m.rmsea.text}, but the printed χ², df = ${df} and N = ${sample.n} give ${describePoint(primary)}; no convention reproduces it (tried: ${tried})`,
-        { reported: m.rmsea.text, recomputed: primary.point, df, n: sample.n, groups: sample.groups, conventionsTried: tried },
-      );
-    }
-  } else {
-    report.skip("rmsea-mismatch", subject, "no RMSEA point estimate printed");
-  }
-  if (m.rmseaLo === null && m.rmseaHi === null) {
-    report.skip("rmsea-interval-mismatch", subject, "no RMSEA interval printed");
-    return;
-  }
-  const first = matched ?? primary;
-  if (intervalMeets(m.rmseaLo, m.rmseaHi, first)) {
-    report.set(keys.rmseaIntervalConvention, first.name);
-    return;
-  }
-  conventions = conventions ?? rmseaConventions(inputs);
-  const index = matchRmseaInterval(m.rmseaLo, m.rmseaHi, conventions, -1);
-  if (index >= 0) {
-    report.set(keys.rmseaIntervalConvention, conventions[index].name);
-    return;
-  }
-  const recomputed = recomputeRmseaInterval(first);
-  report.set(keys.rmseaInterval, recomputed);
-  const printed = `[${m.rmseaLo?.text ?? "–"}, ${m.rmseaHi?.text ?? "–"}]`;
-  report.add(
-    "rmsea-interval-mismatch",
-    subject,
-    `${modelName(subject, m.label)}: reported 90 % RMSEA interval ${printed}, but inverting the noncentral χ² gives ${describeInterval(recomputed, first)}; no convention reproduces it (tried ${conventions.length})`,
-    { reportedLower: m.rmseaLo?.text ?? null, reportedUpper: m.rmseaHi?.text ?? null, recomputed, df, n: sample.n, groups: sample.groups },
-  );
 }
 
 /** Moments minus free parameters, with or without a mean structure (see checkDfRecount). */

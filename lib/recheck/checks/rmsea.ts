@@ -159,20 +159,47 @@ export function rmseaConventions(inputs: RmseaInputs): RmseaConvention[] {
 }
 
 /**
- * The most likely convention alone (scaled χ² for robust estimators when available, else ML χ²; N; ×√G
- * for several groups), built without the full list so the common, consistent case stays cheap.
+ * The most likely convention (scaled χ² for robust estimators when available, else ML χ²; N; ×√G for
+ * several groups). The consistent case needs no objects for it: primaryPointMeets and
+ * primaryIntervalMeets test it from the statistic's interval directly; primaryConvention builds it as
+ * an RmseaConvention for the rarer cases that need one (a mismatch to report).
  */
+function primaryGroupFactor(groups: number): number {
+  return groups > 1 ? Math.sqrt(groups) : 1;
+}
+
+export function primaryConventionName(useScaled: boolean, groups: number): string {
+  return useScaled ? (groups > 1 ? "scaled χ², N, ×√G" : "scaled χ², N") : groups > 1 ? "ML χ², N, ×√G" : "ML χ², N";
+}
+
+/** The primary convention's point interval meets the printed RMSEA. */
+export function primaryPointMeets(printed: PrintedNumber, stat: Interval, df: number, n: number, groups: number): boolean {
+  const g = primaryGroupFactor(groups);
+  return meets(printed.lo, printed.hi, rmseaOf(stat.lo, df, n, g), rmseaOf(stat.hi, df, n, g));
+}
+
+/** The primary convention's point interval. */
+export function primaryPoint(stat: Interval, df: number, n: number, groups: number): Interval {
+  const g = primaryGroupFactor(groups);
+  return { lo: rmseaOf(stat.lo, df, n, g), hi: rmseaOf(stat.hi, df, n, g) };
+}
+
+/** Both printed bounds (where printed) are reproduced under the primary convention (see intervalMeets). */
+export function primaryIntervalMeets(lower: PrintedNumber | null, upper: PrintedNumber | null, stat: Interval, df: number, n: number, groups: number): boolean {
+  const k = (n * df) / groups;
+  return cornersMeet(lower, upper, stat.hi, df, k, stat.lo, df, k);
+}
+
 export function primaryConvention(inputs: RmseaInputs): RmseaConvention | null {
   const { n, groups, df } = inputs;
   const useScaled = inputs.robust && inputs.scaled !== null;
   const stat = useScaled ? inputs.scaled : inputs.chisq;
   if (stat === null) return null;
-  const g = groups > 1 ? Math.sqrt(groups) : 1;
   const k = (n * df) / groups;
   const mid = useScaled ? (inputs.scaledValue ?? stat.lo) : (inputs.chisqValue ?? stat.lo);
   return {
-    name: useScaled ? (groups > 1 ? "scaled χ², N, ×√G" : "scaled χ², N") : groups > 1 ? "ML χ², N, ×√G" : "ML χ², N",
-    point: { lo: rmseaOf(stat.lo, df, n, g), hi: rmseaOf(stat.hi, df, n, g) },
+    name: primaryConventionName(useScaled, groups),
+    point: primaryPoint(stat, df, n, groups),
     high: { x: stat.hi, df, k },
     low: { x: stat.lo, df, k },
     mid: { x: mid, df, k },
@@ -214,22 +241,36 @@ export function matchRmseaInterval(
  */
 export function intervalMeets(lower: PrintedNumber | null, upper: PrintedNumber | null, convention: RmseaConvention): boolean {
   const { high, low } = convention;
-  const lambdaLowerLo = lower !== null && lower.lo > 0 ? lower.lo * lower.lo * high.k : 0;
-  const lambdaUpperLo = upper !== null && upper.lo > 0 ? upper.lo * upper.lo * high.k : 0;
+  return cornersMeet(lower, upper, high.x, high.df, high.k, low.x, low.df, low.k);
+}
+
+/** intervalMeets for the corners (x, df, k) given as numbers. */
+function cornersMeet(
+  lower: PrintedNumber | null,
+  upper: PrintedNumber | null,
+  highX: number,
+  highDf: number,
+  highK: number,
+  lowX: number,
+  lowDf: number,
+  lowK: number,
+): boolean {
+  const lambdaLowerLo = lower !== null && lower.lo > 0 ? lower.lo * lower.lo * highK : 0;
+  const lambdaUpperLo = upper !== null && upper.lo > 0 ? upper.lo * upper.lo * highK : 0;
   if (lambdaLowerLo > 0 || lambdaUpperLo > 0) {
-    if (!(high.x > 0)) return false;
+    if (!(highX > 0)) return false;
     const met =
       lambdaLowerLo > 0
-        ? noncentralCdfSignsAre(high.x, high.df, lambdaLowerLo, 0.95 - SLACK, lambdaUpperLo > 0 ? lambdaUpperLo : Number.NaN, 0.05 - SLACK, true)
-        : noncentralCdfSignsAre(high.x, high.df, lambdaUpperLo, 0.05 - SLACK, Number.NaN, 0, true);
+        ? noncentralCdfSignsAre(highX, highDf, lambdaLowerLo, 0.95 - SLACK, lambdaUpperLo > 0 ? lambdaUpperLo : Number.NaN, 0.05 - SLACK, true)
+        : noncentralCdfSignsAre(highX, highDf, lambdaUpperLo, 0.05 - SLACK, Number.NaN, 0, true);
     if (!met) return false;
   }
-  if (low.x <= 0) return true;
+  if (lowX <= 0) return true;
   if (lower !== null) {
-    const lambdaUpperHi = upper !== null ? upper.hi * upper.hi * low.k : Number.NaN;
-    return noncentralCdfSignsAre(low.x, low.df, lower.hi * lower.hi * low.k, 0.95 + SLACK, lambdaUpperHi, 0.05 + SLACK, false);
+    const lambdaUpperHi = upper !== null ? upper.hi * upper.hi * lowK : Number.NaN;
+    return noncentralCdfSignsAre(lowX, lowDf, lower.hi * lower.hi * lowK, 0.95 + SLACK, lambdaUpperHi, 0.05 + SLACK, false);
   }
-  return upper === null || noncentralCdfSignsAre(low.x, low.df, upper.hi * upper.hi * low.k, 0.05 + SLACK, Number.NaN, 0, false);
+  return upper === null || noncentralCdfSignsAre(lowX, lowDf, upper.hi * upper.hi * lowK, 0.05 + SLACK, Number.NaN, 0, false);
 }
 
 /** The recomputed 90 % interval at the convention's central values (root finding: only on mismatch). */
