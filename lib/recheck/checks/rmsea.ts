@@ -11,7 +11,7 @@
 // interval meets the recomputed one iff the CDF condition changes sign across it (two CDF evaluations).
 // Roots are only found, lazily, to report the recomputed interval when nothing matched.
 import {
-  noncentralCdfSignsAre as noncentralCdfSignsAreImport,
+  noncentralCdfTests as noncentralCdfTestsImport,
   noncentralityForCdf as noncentralityForCdfImport,
 } from "../distributions/noncentral";
 import { meets as meetsImport, show as showImport, showInterval as showIntervalImport } from "../interval";
@@ -21,7 +21,7 @@ import type { Interval } from "../types";
 // Imported functions bound once: under tsx (CommonJS output, as the CLI runs) each call to an import
 // otherwise goes through an export getter, which showed up in the engine benchmark's profile.
 const meets = meetsImport;
-const noncentralCdfSignsAre = noncentralCdfSignsAreImport;
+const noncentralCdfTests = noncentralCdfTestsImport;
 const noncentralityForCdf = noncentralityForCdfImport;
 const show = showImport;
 const showInterval = showIntervalImport;
@@ -236,15 +236,21 @@ export function matchRmseaInterval(
  *   printed.lo ≤ recomputed maximum  ⇔  F(x_high; df, λ(printed.lo)) ≥ level (or λ = 0),
  *   printed.hi ≥ recomputed minimum  ⇔  F(x_low; df, λ(printed.hi)) < level (or x_low ≤ 0: the χ²
  *   interval reaches 0, so the recomputed bound can be 0).
- * The lower and the upper bound are tested at the same corner together, so that the second test can
- * start from where the first left the series (noncentralCdfSignsAre).
+ * The tests at one corner are made in one call, so that each can start from where the previous one left
+ * the series (noncentralCdfTests).
  */
 export function intervalMeets(lower: PrintedNumber | null, upper: PrintedNumber | null, convention: RmseaConvention): boolean {
   const { high, low } = convention;
   return cornersMeet(lower, upper, high.x, high.df, high.k, low.x, low.df, low.k);
 }
 
-/** intervalMeets for the corners (x, df, k) given as numbers. */
+/**
+ * intervalMeets for the corners (x, df, k) given as numbers. Where both corners have the same df (all
+ * but the c·df conventions) the upper-end tests are first tried at x_high, in the same call as the
+ * lower-end ones, so that all four share one start of the series (noncentralCdfTests): F rises in x, so
+ * F(x_high; λ) < level implies F(x_low; λ) < level. Only an upper-end test that fails there (F within
+ * the two corners' difference of the level) is decided at x_low.
+ */
 function cornersMeet(
   lower: PrintedNumber | null,
   upper: PrintedNumber | null,
@@ -255,22 +261,30 @@ function cornersMeet(
   lowDf: number,
   lowK: number,
 ): boolean {
-  const lambdaLowerLo = lower !== null && lower.lo > 0 ? lower.lo * lower.lo * highK : 0;
-  const lambdaUpperLo = upper !== null && upper.lo > 0 ? upper.lo * upper.lo * highK : 0;
-  if (lambdaLowerLo > 0 || lambdaUpperLo > 0) {
-    if (!(highX > 0)) return false;
-    const met =
-      lambdaLowerLo > 0
-        ? noncentralCdfSignsAre(highX, highDf, lambdaLowerLo, 0.95 - SLACK, lambdaUpperLo > 0 ? lambdaUpperLo : Number.NaN, 0.05 - SLACK, true)
-        : noncentralCdfSignsAre(highX, highDf, lambdaUpperLo, 0.05 - SLACK, Number.NaN, 0, true);
-    if (!met) return false;
+  // λ of each printed end (NaN: no test; a printed lower end of 0 needs none)
+  const lowerLo = lower !== null && lower.lo > 0 ? lower.lo * lower.lo * highK : 0;
+  const upperLo = upper !== null && upper.lo > 0 ? upper.lo * upper.lo * highK : 0;
+  const lambdaLowerLo = lowerLo > 0 ? lowerLo : Number.NaN;
+  const lambdaUpperLo = upperLo > 0 ? upperLo : Number.NaN;
+  const highTests = lowerLo > 0 || upperLo > 0;
+  if (highTests && !(highX > 0)) return false;
+  if (lowX <= 0) {
+    return !highTests || noncentralCdfTests(highX, highDf, lambdaLowerLo, 0.95 - SLACK, Number.NaN, 0, lambdaUpperLo, 0.05 - SLACK, Number.NaN, 0) === 0;
   }
-  if (lowX <= 0) return true;
-  if (lower !== null) {
-    const lambdaUpperHi = upper !== null ? upper.hi * upper.hi * lowK : Number.NaN;
-    return noncentralCdfSignsAre(lowX, lowDf, lower.hi * lower.hi * lowK, 0.95 + SLACK, lambdaUpperHi, 0.05 + SLACK, false);
+  const lambdaLowerHi = lower !== null ? lower.hi * lower.hi * lowK : Number.NaN;
+  const lambdaUpperHi = upper !== null ? upper.hi * upper.hi * lowK : Number.NaN;
+  // the upper-end tests still to decide at x_low, as noncentralCdfTests' bits
+  let open = 2 | 8;
+  if (highDf === lowDf && highX >= lowX) {
+    const failed = noncentralCdfTests(highX, highDf, lambdaLowerLo, 0.95 - SLACK, lambdaLowerHi, 0.95 + SLACK, lambdaUpperLo, 0.05 - SLACK, lambdaUpperHi, 0.05 + SLACK);
+    if (failed <= 0) return failed === 0;
+    open = failed;
+  } else if (highTests && noncentralCdfTests(highX, highDf, lambdaLowerLo, 0.95 - SLACK, Number.NaN, 0, lambdaUpperLo, 0.05 - SLACK, Number.NaN, 0) !== 0) {
+    return false;
   }
-  return upper === null || noncentralCdfSignsAre(lowX, lowDf, upper.hi * upper.hi * lowK, 0.05 + SLACK, Number.NaN, 0, false);
+  const lowerHi = (open & 2) !== 0 ? lambdaLowerHi : Number.NaN;
+  const upperHi = (open & 8) !== 0 ? lambdaUpperHi : Number.NaN;
+  return noncentralCdfTests(lowX, lowDf, Number.NaN, 0, lowerHi, 0.95 + SLACK, Number.NaN, 0, upperHi, 0.05 + SLACK) === 0;
 }
 
 /** The recomputed 90 % interval at the convention's central values (root finding: only on mismatch). */

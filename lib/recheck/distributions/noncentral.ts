@@ -109,16 +109,18 @@ function poissonAtMode(mu: number, mode: number): number {
 
 /**
  * Is F(x; df, λ) ≥ target? The same series, summed outwards from the mode alternately up and down, and
- * stopped as soon as the answer is certain (see noncentralCdfSignsAre, which does the work).
+ * stopped as soon as the answer is certain (see noncentralCdfTests, which does the work).
  */
 export function noncentralCdfAtLeast(x: number, df: number, lambda: number, target: number): boolean {
-  return noncentralCdfSignsAre(x, df, lambda, target, Number.NaN, 0, true);
+  return noncentralCdfTests(x, df, lambda, target, Number.NaN, 0, Number.NaN, 0, Number.NaN, 0) === 0;
 }
 
 /**
- * Are both tests F(x; df, λ1) ≥ target1 and F(x; df, λ2) ≥ target2 answered `atLeast`? (λ2 = NaN: the
- * first test alone.) Used for the RMSEA interval checks, whose two printed bounds are each tested at the
- * same χ² corner (see intervalMeets in checks/rmsea.ts).
+ * Up to four sign tests at one (x, df), taken in order: F(x; df, λ1) ≥ target1, F(x; df, λ2) < target2,
+ * F(x; df, λ3) ≥ target3, F(x; df, λ4) < target4 (a test whose λ is NaN is left out): the shape of the
+ * RMSEA interval checks, two tests for each printed bound (see cornersMeet in checks/rmsea.ts). Returns
+ * −1 as soon as a "≥" test fails; otherwise the failed "<" tests as bits (2 for the second test, 8 for
+ * the fourth), so 0 when all hold.
  *
  * Each test is the Poisson-mixture series, summed outwards from the mode alternately up and down, and
  * stopped as soon as the answer is certain: the partial sum S only grows, and what is left is at most the
@@ -132,14 +134,14 @@ export function noncentralCdfAtLeast(x: number, df: number, lambda: number, targ
  * F ∈ [S, S + 1 − W + COARSE] (the weights sum to 1). Only a test still undecided when the series has
  * converged, i.e. F within COARSE of the target, is decided by the full sum instead.
  *
- * The two tests share x and df, so P(a + j, y) is the same function of j in both. The second test's P at
- * its own mode is therefore walked to, by the same exact recurrences, from the nearest index the first
- * test reached (its mode, or either end of its window) when that is at most WALK steps away: a step costs
- * one division, a fresh start (the prefactor's exp and log1p, then the power series or continued
- * fraction) about as much as 60. The walked P carries the first start's error bound (short by at most
- * COARSE after the series, near-exact after the continued fraction), so the same certified stopping
- * rules apply with that start's slack. A start whose term has (nearly) underflowed, far in a tail, is
- * not walked from: the recurrence could not bring back the precision lost there.
+ * The tests share x and df, so P(a + j, y) is the same function of j in all of them. A later test's P at
+ * its own mode is therefore walked to, by the same exact recurrences, from the nearest index the
+ * previous test reached (its mode, or either end of its window) when that is at most WALK steps away: a
+ * step costs one division, a fresh start (the prefactor's exp and log1p, then the power series or
+ * continued fraction) about as much as 60. The walked P carries the first start's error bound (short by
+ * at most COARSE after the series, near-exact after the continued fraction), so the same certified
+ * stopping rules apply with that start's slack. A start whose term has (nearly) underflowed, far in a
+ * tail, is not walked from: the recurrence could not bring back the precision lost there.
  *
  * Tried and dropped, as no faster or slower under V8 on the engine's recorded calls: the loop's sharper
  * upper bound and the lower bound below tested at every step (14.5 instead of 18.5 steps, but 9–16 %
@@ -149,15 +151,18 @@ export function noncentralCdfAtLeast(x: number, df: number, lambda: number, targ
  * above ½, down below: 30 % fewer terms, but more passes through the loop, or twice the code when
  * unrolled, for no measurable gain); one reciprocal for the two upward ratios instead of two divisions.
  */
-export function noncentralCdfSignsAre(
+export function noncentralCdfTests(
   x: number,
   df: number,
   lambda1: number,
   target1: number,
   lambda2: number,
   target2: number,
-  atLeast: boolean,
-): boolean {
+  lambda3: number,
+  target3: number,
+  lambda4: number,
+  target4: number,
+): number {
   const TAIL = 1e-13;
   const MAX_TERMS = 100_000;
   const COARSE = 1e-7;
@@ -177,10 +182,11 @@ export function noncentralCdfSignsAre(
   let jDown = 0;
   let pDown = 0;
   let tDown = 0;
-  for (let test = 0; test < 2; test++) {
-    const lambda = test === 0 ? lambda1 : lambda2;
-    const target = test === 0 ? target1 : target2;
-    if (test === 1 && Number.isNaN(lambda)) break;
+  let failed = 0;
+  for (let test = 0; test < 4; test++) {
+    const lambda = test === 0 ? lambda1 : test === 1 ? lambda2 : test === 2 ? lambda3 : lambda4;
+    const target = test === 0 ? target1 : test === 1 ? target2 : test === 2 ? target3 : target4;
+    if (Number.isNaN(lambda)) continue;
     let answer: boolean;
     if (x <= 0) {
       answer = target <= 0;
@@ -293,9 +299,13 @@ export function noncentralCdfSignsAre(
       else if (slack === 0 || sum + slack < target) answer = sum >= target;
       else answer = noncentralChisqCdf(x, df, lambda) >= target;
     }
-    if (answer !== atLeast) return false;
+    if (test === 0 || test === 2) {
+      if (!answer) return -1;
+    } else if (answer) {
+      failed |= 1 << test;
+    }
   }
-  return true;
+  return failed;
 }
 
 /**

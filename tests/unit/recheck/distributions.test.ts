@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { chisqCdf, chisqUpperQuantile, chisqUpperTail } from "@/lib/recheck/distributions/chisq";
 import { gammaPrefactor, logGamma, lowerSeriesWithin, regularizedGammaP, regularizedGammaQ } from "@/lib/recheck/distributions/gamma";
-import { noncentralCdfAtLeast, noncentralCdfSignsAre, noncentralChisqCdf, noncentralityForCdf } from "@/lib/recheck/distributions/noncentral";
+import { noncentralCdfAtLeast, noncentralCdfTests, noncentralChisqCdf, noncentralityForCdf } from "@/lib/recheck/distributions/noncentral";
 import { reference } from "./reference";
 
 const relativeError = (got: number, want: number) => Math.abs(got - want) / Math.abs(want);
@@ -345,8 +345,8 @@ describe("noncentralChisqCdf (Poisson-mixture series)", () => {
   });
 
   // Source: computed for this test with mpmath 1.3.0 at 40 digits, by the same Poisson-mixture sum as
-  // NEAR_TARGET (not R). Two noncentralities at one (x, df), as the RMSEA interval check pairs them: the
-  // second test's P at its mode is walked to from the first test's window upwards (the benchmark's
+  // NEAR_TARGET (not R). Two noncentralities at one (x, df), as the RMSEA interval check tests them: the
+  // later test's P at its mode is walked to from the earlier test's window upwards (the benchmark's
   // shape), downwards, across the switch from the power series to the continued fraction (200, 100),
   // within one mode (50, 40), and started afresh when the modes are more than 64 apart (120, 40).
   const PAIRS: Array<[number, number, number, string, number, string]> = [
@@ -359,40 +359,53 @@ describe("noncentralChisqCdf (Poisson-mixture series)", () => {
     [2100, 2000, 100, "0.50419180656231929192", 160, "0.18981119364297494269"],
     [12000, 500, 11000, "0.99025994133674901668", 11100, "0.96896352267527969828"],
   ];
-  it.each(PAIRS)("at x = %s, df = %s, both tests of a pair, λ = %s (F = %s) and λ = %s (F = %s), are decided right 1e-6 and 1e-9 either side of F", (x, df, lambda1, want1, lambda2, want2) => {
+  it.each(PAIRS)("at x = %s, df = %s, tests at λ = %s (F = %s) and λ = %s (F = %s) in one call are decided right 1e-6 and 1e-9 either side of F", (x, df, lambda1, want1, lambda2, want2) => {
     const [f1, f2] = [Number(want1), Number(want2)];
+    const none = Number.NaN; // leaves a test out
     for (const delta of [1e-6, 1e-9]) {
-      expect(noncentralCdfSignsAre(x, df, lambda1, f1 - delta, lambda2, f2 - delta, true)).toBe(true);
-      expect(noncentralCdfSignsAre(x, df, lambda1, f1 - delta, lambda2, f2 + delta, true)).toBe(false);
-      expect(noncentralCdfSignsAre(x, df, lambda1, f1 + delta, lambda2, f2 + delta, false)).toBe(true);
-      expect(noncentralCdfSignsAre(x, df, lambda1, f1 + delta, lambda2, f2 - delta, false)).toBe(false);
-      // and with the roles swapped, so that the walk goes the other way
-      expect(noncentralCdfSignsAre(x, df, lambda2, f2 - delta, lambda1, f1 - delta, true)).toBe(true);
-      expect(noncentralCdfSignsAre(x, df, lambda2, f2 - delta, lambda1, f1 + delta, true)).toBe(false);
+      // the two "≥" tests (first and third): −1 as soon as one fails
+      expect(noncentralCdfTests(x, df, lambda1, f1 - delta, none, 0, lambda2, f2 - delta, none, 0)).toBe(0);
+      expect(noncentralCdfTests(x, df, lambda1, f1 - delta, none, 0, lambda2, f2 + delta, none, 0)).toBe(-1);
+      expect(noncentralCdfTests(x, df, lambda2, f2 - delta, none, 0, lambda1, f1 - delta, none, 0)).toBe(0);
+      expect(noncentralCdfTests(x, df, lambda2, f2 - delta, none, 0, lambda1, f1 + delta, none, 0)).toBe(-1);
+      // the two "<" tests (second and fourth): each failure is reported as its bit
+      expect(noncentralCdfTests(x, df, none, 0, lambda1, f1 + delta, none, 0, lambda2, f2 + delta)).toBe(0);
+      expect(noncentralCdfTests(x, df, none, 0, lambda1, f1 + delta, none, 0, lambda2, f2 - delta)).toBe(8);
+      expect(noncentralCdfTests(x, df, none, 0, lambda1, f1 - delta, none, 0, lambda2, f2 - delta)).toBe(2 | 8);
+      // all four, alternating between the two noncentralities
+      expect(noncentralCdfTests(x, df, lambda1, f1 - delta, lambda2, f2 + delta, lambda1, f1 - delta, lambda2, f2 + delta)).toBe(0);
+      expect(noncentralCdfTests(x, df, lambda1, f1 - delta, lambda2, f2 - delta, lambda2, f2 - delta, lambda1, f1 + delta)).toBe(2);
     }
   });
 
-  it("decides each test of a pair as the full sum does, on 20 000 seeded random pairs at one (x, df)", () => {
+  it("decides four tests at one (x, df) as the full sum does, on 10 000 seeded random points", () => {
     // Park & Miller (1988) minimal standard generator, so the points are the same on every run.
     let state = 54321;
     const random = () => (state = (state * 16807) % 2147483647) / 2147483647;
     let checked = 0;
-    for (let i = 0; i < 20_000; i++) {
+    for (let i = 0; i < 10_000; i++) {
       const df = 1 + Math.floor(random() * 300);
-      const lambda1 = random() * 400;
-      // the second noncentrality near the first (a walk) or anywhere (often a fresh start)
-      const lambda2 = random() < 0.7 ? Math.max(0, lambda1 + (random() - 0.3) * 150) : random() * 400;
-      const x = Math.max(0.01, df + lambda1 + (random() - 0.5) * 6 * Math.sqrt(2 * (df + 2 * lambda1)));
-      const f1 = noncentralChisqCdf(x, df, lambda1);
-      const f2 = noncentralChisqCdf(x, df, lambda2);
-      const t1 = Math.min(0.999, Math.max(0.001, f1 + (random() - 0.5) * 0.01));
-      const t2 = Math.min(0.999, Math.max(0.001, f2 + (random() - 0.5) * 0.01));
-      if (Math.abs(f1 - t1) < 1e-11 || Math.abs(f2 - t2) < 1e-11) continue; // closer than the series' own accuracy
-      const atLeast = random() < 0.5;
-      expect(noncentralCdfSignsAre(x, df, lambda1, t1, lambda2, t2, atLeast)).toBe(f1 >= t1 === atLeast && f2 >= t2 === atLeast);
-      if (f1 >= t1 === atLeast) checked++; // the second test was reached
+      const base = random() * 400;
+      // noncentralities near each other (walks) or anywhere (often fresh starts)
+      const lambdas = [0, 1, 2, 3].map(() => (random() < 0.7 ? Math.max(0, base + (random() - 0.3) * 150) : random() * 400));
+      const x = Math.max(0.01, df + base + (random() - 0.5) * 6 * Math.sqrt(2 * (df + 2 * base)));
+      const f = lambdas.map((lambda) => noncentralChisqCdf(x, df, lambda));
+      const targets = f.map((fj) => Math.min(0.999, Math.max(0.001, fj + (random() - 0.5) * 0.01)));
+      if (f.some((fj, j) => Math.abs(fj - targets[j]) < 1e-11)) continue; // closer than the series' own accuracy
+      let expected = 0;
+      for (let j = 0; j < 4; j++) {
+        const atLeast = f[j] >= targets[j];
+        if (j % 2 === 0 && !atLeast) {
+          expected = -1;
+          break;
+        }
+        if (j % 2 === 1 && atLeast) expected |= 1 << j;
+      }
+      const got = noncentralCdfTests(x, df, lambdas[0], targets[0], lambdas[1], targets[1], lambdas[2], targets[2], lambdas[3], targets[3]);
+      expect(got).toBe(expected);
+      if (expected >= 0) checked++; // all four tests were reached
     }
-    expect(checked).toBeGreaterThan(9_000);
+    expect(checked).toBeGreaterThan(1_500);
   });
 
   it("decides right next to the full sum for small modes (the direct Poisson weight) and at λ = 0", () => {
