@@ -1,9 +1,10 @@
 // A model's own checks (DESIGN §4.3): identification, its χ² p, RMSEA and CI, CFI/TLI, the df recount
 // and AIC/BIC from the log-likelihood. Used for both models of a comparison and for lone models.
+import { chisqUpperTailInterval as chisqUpperTailIntervalImport } from "../distributions/chisq";
 import { showPInterval as showPIntervalImport } from "../interval";
 import type { ParsedModel, ParsedSample } from "../parse";
 import type { Report } from "../report";
-import { judgeP as judgePImport, modelName as modelNameImport, upperTailInterval as upperTailIntervalImport } from "./common";
+import { judgeP as judgePImport, modelName as modelNameImport } from "./common";
 import { checkModelCriteria as checkModelCriteriaImport } from "./criteria";
 import { type Derived, scaledStatistic as scaledStatisticImport, scalingFactor as scalingFactorImport } from "./derived";
 import { checkFitIndices as checkFitIndicesImport } from "./fit-indices";
@@ -27,6 +28,7 @@ import {
 // Imported functions bound once: under tsx (CommonJS output, as the CLI runs) each call to an import
 // otherwise goes through an export getter, which showed up in the engine benchmark's profile.
 const checkFitIndices = checkFitIndicesImport;
+const chisqUpperTailInterval = chisqUpperTailIntervalImport;
 const checkModelCriteria = checkModelCriteriaImport;
 const describeInterval = describeIntervalImport;
 const describePoint = describePointImport;
@@ -45,7 +47,6 @@ const rmseaConventions = rmseaConventionsImport;
 const scaledStatistic = scaledStatisticImport;
 const scalingFactor = scalingFactorImport;
 const showPInterval = showPIntervalImport;
-const upperTailInterval = upperTailIntervalImport;
 
 // recomputed-figure keys per subject, written out as literals (typed as RecomputedKey by Report.set): a
 // key built at run time (`${subject}.p`) is not internalised, so Report.set's cases would compare it
@@ -124,7 +125,7 @@ function checkModelP(ctx: ModelCheckContext, df: number): void {
     report.skip("model-p-mismatch", subject, "no χ² printed");
     return;
   }
-  const p = upperTailInterval(stat, df);
+  const p = chisqUpperTailInterval(Math.max(0, stat.lo), Math.max(0, stat.hi), df);
   report.set(keysOf(subject).p, p);
   if (m.p === null) {
     report.skip("model-p-mismatch", subject, "no p printed");

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { chisqCdf, chisqUpperQuantile, chisqUpperTail } from "@/lib/recheck/distributions/chisq";
+import { chisqCdf, chisqUpperQuantile, chisqUpperTail, chisqUpperTailInterval } from "@/lib/recheck/distributions/chisq";
 import { gammaPrefactor, logGamma, lowerSeriesWithin, regularizedGammaP, regularizedGammaQ } from "@/lib/recheck/distributions/gamma";
 import { noncentralCdfAtLeast, noncentralCdfTests, noncentralChisqCdf, noncentralityForCdf } from "@/lib/recheck/distributions/noncentral";
 import { reference } from "./reference";
@@ -150,6 +150,42 @@ describe("chisqUpperTail over df 1…10 000 and p down to 1e-300 (DESIGN §4.2)"
     expect(Math.min(...dfs)).toBe(1);
     expect(Math.max(...dfs)).toBe(10_000);
     expect(Math.min(...ps)).toBeLessThan(1.1e-300);
+  });
+});
+
+describe("chisqUpperTailInterval: the p interval of a printed statistic's interval", () => {
+  it("gives P(X > hi) exactly as chisqUpperTail does", () => {
+    for (const [x, df] of MPMATH_GRID) expect(chisqUpperTailInterval(x - 0.005, x, df).lo).toBe(chisqUpperTail(x, df));
+  });
+
+  it.each([1e-4, 1e-3, 1e-2, 0.1, 1])("derives P(X > lo) within 1e-12 relative of R's pchisq_grid, interval %s wide", (width) => {
+    // Source: the lavaan reference file's pchisq_grid (R 4.2.2), at the interval's lower end.
+    for (const g of reference.pchisq_grid) expect(relativeError(chisqUpperTailInterval(g.x, g.x + width, g.df).hi, g.p_upper)).toBeLessThanOrEqual(1e-12);
+  });
+
+  it.each([1e-4, 1e-2, 1])("derives P(X > lo) within 1e-12 relative of mpmath over df 1…10 000 and p down to 1e-300, interval %s wide", (width) => {
+    // Source: MPMATH_GRID above (mpmath 1.3.0, 50 digits), at the interval's lower end.
+    for (const [x, df, p] of MPMATH_GRID) expect(relativeError(chisqUpperTailInterval(x, x + width, df).hi, Number(p))).toBeLessThanOrEqual(1e-12);
+  });
+
+  it("agrees with two direct evaluations within 1e-12 relative on 20 000 seeded random intervals", () => {
+    // Park & Miller (1988) minimal standard generator, so the points are the same on every run.
+    let state = 97531;
+    const random = () => (state = (state * 16807) % 2147483647) / 2147483647;
+    for (let i = 0; i < 20_000; i++) {
+      const df = random() < 0.5 ? 1 + Math.floor(random() * 30) : 1 + Math.floor(random() * 5000);
+      const x = Math.max(0.001, df + (random() - 0.3) * 12 * Math.sqrt(2 * df));
+      const width = 10 ** (-4 + 4.5 * random()); // 1e-4 … 30: narrow ones take the series, wide ones not
+      const p = chisqUpperTailInterval(x, x + width, df);
+      expect(p.lo).toBe(chisqUpperTail(x + width, df));
+      expect(relativeError(p.hi, chisqUpperTail(x, df))).toBeLessThanOrEqual(1e-12);
+    }
+  });
+
+  it("handles df = 0, a lower end at 0 and an empty interval as chisqUpperTail does", () => {
+    expect(chisqUpperTailInterval(1, 2, 0)).toEqual({ lo: 0, hi: 0 });
+    expect(chisqUpperTailInterval(0, 2, 3)).toEqual({ lo: chisqUpperTail(2, 3), hi: 1 });
+    expect(chisqUpperTailInterval(7.5, 7.5, 3)).toEqual({ lo: chisqUpperTail(7.5, 3), hi: chisqUpperTail(7.5, 3) });
   });
 });
 
