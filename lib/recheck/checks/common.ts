@@ -1,12 +1,12 @@
 // Helpers shared by the checks: p-value verdicts with the DESIGN §4.1 rounding and alpha rules.
-import { chisqUpperTail as chisqUpperTailImport } from "../distributions/chisq";
+import { chisqUpperTailInterval as chisqUpperTailIntervalImport } from "../distributions/chisq";
 import { meets as meetsImport } from "../interval";
 import type { PrintedP } from "../printed";
 import type { Estimator, Interval } from "../types";
 
 // Imported functions bound once: under tsx (CommonJS output, as the CLI runs) each call to an import
 // otherwise goes through an export getter, which showed up in the engine benchmark's profile.
-const chisqUpperTail = chisqUpperTailImport;
+const chisqUpperTailInterval = chisqUpperTailIntervalImport;
 const meets = meetsImport;
 
 /** How a printed p relates to a recomputed p interval. */
@@ -42,9 +42,12 @@ export function judgeP(p: PrintedP, lo: number, hi: number, alpha: number): PVer
   return changed ? "changed" : "mismatch";
 }
 
-/** Upper-tail p interval of a chi-square statistic interval (Q falls as x grows). */
+/**
+ * Upper-tail p interval of a chi-square statistic interval (Q falls as x grows): [Q(hi), Q(lo)], the
+ * second end from the first by chisqUpperTailInterval's short integral when the interval is narrow.
+ */
 export function upperTailInterval(stat: Interval, df: number): Interval {
-  return { lo: chisqUpperTail(Math.max(0, stat.hi), df), hi: chisqUpperTail(Math.max(0, stat.lo), df) };
+  return chisqUpperTailInterval(Math.max(0, stat.lo), Math.max(0, stat.hi), df);
 }
 
 /**

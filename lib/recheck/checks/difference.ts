@@ -1,7 +1,6 @@
 // The difference test of a comparison (DESIGN §4.3): Δdf, Δχ², its p, and for robust estimators the
 // Satorra–Bentler scaled difference. A and B are already in restricted/free order here, and every
 // printed Δ is read as restricted − free.
-import { chisqUpperTail as chisqUpperTailImport } from "../distributions/chisq";
 import {
   differenceOf as differenceOfImport,
   meets as meetsImport,
@@ -30,7 +29,6 @@ import {
 // Imported functions bound once: under tsx (CommonJS output, as the CLI runs) each call to an import
 // otherwise goes through an export getter, which showed up in the engine benchmark's profile.
 const chisqForm = chisqFormImport;
-const chisqUpperTail = chisqUpperTailImport;
 const conclusionChanged = conclusionChangedImport;
 const differenceOf = differenceOfImport;
 const isMlFamily = isMlFamilyImport;
@@ -293,6 +291,6 @@ function describeForms(forms: ScaledForm[]): string {
  */
 function changedAgainst(printedP: PrintedP | null, printedStat: PrintedNumber, df: number, recomputed: Interval, alpha: number): boolean {
   if (printedP !== null) return conclusionChanged(printedP, recomputed.lo, recomputed.hi, alpha);
-  const implied = { lo: chisqUpperTail(Math.max(0, printedStat.hi), df), hi: chisqUpperTail(Math.max(0, printedStat.lo), df) };
+  const implied = upperTailInterval(printedStat, df);
   return (implied.hi < alpha && recomputed.lo >= alpha) || (implied.lo >= alpha && recomputed.hi < alpha);
 }
