@@ -6,8 +6,8 @@ import { createReadStream } from "node:fs";
 import { stat } from "node:fs/promises";
 import { checkSheetRow, csvLine, isSheetError, mergeFieldErrors, readSheetBatches, toComparisonInput, type SheetRow } from "@/lib/csv";
 import { recheck } from "@/lib/recheck";
-import type { Finding, RecheckResult, SkippedCheck } from "@/lib/recheck/types";
 import { oneLine } from "./one-line";
+import { JsonLineWriter, OutputBuffer } from "./recheck-output";
 
 const USAGE = `Usage: npm run --silent recheck -- FILE.csv [--format jsonl|csv]
 
@@ -79,42 +79,15 @@ function fileProblem(file: string, error: unknown): string {
 }
 
 /**
- * Result text encoded into a Buffer as it comes, and handed to the stream a buffer at a time. Writing
- * strings instead meant gluing each batch into one long string (a rope V8 then has to flatten) and the
- * stream encoding it to UTF-8 again in one piece; the messages hold χ², Δ and −, so those strings are
- * two-byte and the copies are not cheap. Encoding line by line into a buffer skips both.
+ * The stream end of the output: full buffers go to stdout at once, without waiting (see settle); a
+ * stream that has queued more than it wants makes the next batch wait for "drain".
  */
-class Output {
-  private buffer: Buffer;
-  private used = 0;
+class Output extends OutputBuffer {
   /** the stream said it has queued more than it wants: wait for "drain" before the next batch */
   private congested = false;
 
-  constructor(
-    private readonly stream: NodeJS.WritableStream,
-    private readonly capacity = 1 << 18,
-  ) {
-    this.buffer = Buffer.allocUnsafe(capacity);
-  }
-
-  /** Appends text; a full buffer goes to the stream at once, without waiting (see settle). */
-  add(text: string): void {
-    // one UTF-16 code unit is at most 3 bytes of UTF-8 (a surrogate pair: 2 units, 4 bytes)
-    if (this.used + text.length * 3 > this.capacity) {
-      this.send();
-      if (text.length * 3 > this.capacity) {
-        this.emit(text);
-        return;
-      }
-    }
-    this.used += this.buffer.write(text, this.used, "utf8");
-  }
-
-  /** Appends text and a line feed. The feed goes in as a byte: `text + "\n"` would be a rope to flatten. */
-  addLine(text: string): void {
-    this.add(text);
-    if (this.used === this.capacity) this.send();
-    this.buffer[this.used++] = 0x0a;
+  constructor(private readonly stream: NodeJS.WritableStream) {
+    super((chunk) => this.write(chunk));
   }
 
   /** Backpressure: a pipe that reads slowly slows us down, so memory stays flat. */
@@ -129,16 +102,7 @@ class Output {
     await this.settle();
   }
 
-  private send(): void {
-    if (this.used === 0) return;
-    const full = this.buffer.subarray(0, this.used);
-    // the stream may hold on to the buffer until it is written out, so what follows goes into a new one
-    this.buffer = Buffer.allocUnsafe(this.capacity);
-    this.used = 0;
-    this.emit(full);
-  }
-
-  private emit(chunk: Buffer | string): void {
+  private write(chunk: Buffer): void {
     try {
       if (!this.stream.write(chunk)) this.congested = true;
     } catch (error) {
@@ -149,85 +113,13 @@ class Output {
 
 const CSV_HEADER = csvLine(["row", "comparison", "outcome", "code", "severity", "subject", "column", "message", "engine_version"]);
 
-/**
- * JSON text of skipped checks. The engine says the same few things over and over (the same check, model
- * and reason on most rows), so the text of each entry is made once, by JSON.stringify, and looked up by
- * its three fields. A SkippedCheck has no other fields, so the text fits every entry with the same three.
- */
-class SkippedJson {
-  private readonly byReason = new Map<string, Map<string, Map<string, string>>>();
-  private entries = 0;
-
-  text(list: readonly SkippedCheck[]): string {
-    if (list.length === 0) return "[]";
-    let text = "[";
-    for (let i = 0; i < list.length; i++) text += (i === 0 ? "" : ",") + this.entry(list[i]);
-    return text + "]";
-  }
-
-  private entry(skip: SkippedCheck): string {
-    const { check, subject, reason } = skip;
-    let byCheck = this.byReason.get(reason);
-    if (byCheck === undefined) {
-      // the reasons are no fixed list (some are put together from parts): never let the table grow without end
-      if (this.entries >= MAX_REMEMBERED) {
-        this.byReason.clear();
-        this.entries = 0;
-      }
-      this.byReason.set(reason, (byCheck = new Map()));
-    }
-    let bySubject = byCheck.get(check);
-    if (bySubject === undefined) byCheck.set(check, (bySubject = new Map()));
-    let text = bySubject.get(subject);
-    if (text === undefined) {
-      text = JSON.stringify(skip);
-      bySubject.set(subject, text);
-      this.entries++;
-    }
-    return text;
-  }
-}
-
-const MAX_REMEMBERED = 10_000;
-
-/**
- * A result's findings as the §4.5 line shows them ({code, severity, message} each), written field by
- * field: the same bytes as JSON.stringify of the brief objects, without making those objects.
- */
-function findingsJson(findings: readonly Finding[]): string {
-  if (findings.length === 0) return "[]";
-  let text = "[";
-  for (let i = 0; i < findings.length; i++) {
-    const f = findings[i];
-    text += (i === 0 ? '{"code":' : ',{"code":') + JSON.stringify(f.code) + ',"severity":' + JSON.stringify(f.severity) + ',"message":' + JSON.stringify(f.message) + "}";
-  }
-  return text + "]";
-}
-
-/**
- * Writes the JSON line of a rechecked row: {"row","comparison","findings","skipped","recomputed","engineVersion"},
- * byte for byte what JSON.stringify of that object gives (the CLI tests compare the two on every fixture
- * sheet). It is put together from parts because JSON.stringify in Node 20's V8 costs more for each small
- * object it enters than for the text in it; measured on the bench sheet's results, this way takes about
- * a sixth fewer instructions. The recomputed figures are left to JSON.stringify: most of their time goes
- * into printing numbers, and doing it by hand measured no better.
- */
-function writeJsonResult(out: Output, row: number, comparison: string | null, result: RecheckResult, skippedJson: SkippedJson): void {
-  const { findings, skipped, recomputed, engineVersion } = result;
-  out.add(
-    '{"row":' + row + ',"comparison":' + JSON.stringify(comparison) + ',"findings":' + findingsJson(findings) + ',"skipped":' + skippedJson.text(skipped) + ',"recomputed":',
-  );
-  out.add(JSON.stringify(recomputed));
-  out.addLine(',"engineVersion":' + JSON.stringify(engineVersion) + "}");
-}
-
 /** What stays the same from row to row of one run. */
 interface RunState {
   format: Format;
   out: Output;
   /** one date for the whole run: the sheet checks test publication years against it */
   today: Date;
-  skippedJson: SkippedJson;
+  json: JsonLineWriter;
 }
 
 /** Writes the result lines of one row. The sheet's own checks run first; the engine validates the figures once. */
@@ -239,15 +131,18 @@ function writeResult(row: SheetRow, run: RunState): void {
   const errors = outcome && !outcome.ok ? mergeFieldErrors(sheetErrors, outcome.errors) : sheetErrors;
 
   if (errors.length > 0 || !outcome?.ok) {
-    if (format === "jsonl") return out.addLine(JSON.stringify({ row: row.row, comparison, errors }));
-    for (const e of errors) out.add(csvLine([String(row.row), comparison ?? "", "error", "", "", "", e.column, e.message, ""]));
+    if (format === "jsonl") {
+      out.text(JSON.stringify({ row: row.row, comparison, errors }));
+      return out.lineFeed();
+    }
+    for (const e of errors) out.text(csvLine([String(row.row), comparison ?? "", "error", "", "", "", e.column, e.message, ""]));
     return;
   }
 
-  if (format === "jsonl") return writeJsonResult(out, row.row, comparison, outcome.result, run.skippedJson);
+  if (format === "jsonl") return run.json.write(row.row, comparison, outcome.result);
   const { findings, engineVersion } = outcome.result;
-  if (findings.length === 0) return out.add(csvLine([String(row.row), comparison ?? "", "clean", "", "", "", "", "", engineVersion]));
-  for (const f of findings) out.add(csvLine([String(row.row), comparison ?? "", "finding", f.code, f.severity, f.subject, "", f.message, engineVersion]));
+  if (findings.length === 0) return out.text(csvLine([String(row.row), comparison ?? "", "clean", "", "", "", "", "", engineVersion]));
+  for (const f of findings) out.text(csvLine([String(row.row), comparison ?? "", "finding", f.code, f.severity, f.subject, "", f.message, engineVersion]));
 }
 
 async function run(args: readonly string[]): Promise<number> {
@@ -258,8 +153,8 @@ async function run(args: readonly string[]): Promise<number> {
   }
   await checkReadable(command.file);
   const output = new Output(process.stdout);
-  const state: RunState = { format: command.format, out: output, today: new Date(), skippedJson: new SkippedJson() };
-  if (command.format === "csv") output.add(CSV_HEADER);
+  const state: RunState = { format: command.format, out: output, today: new Date(), json: new JsonLineWriter(output) };
+  if (command.format === "csv") output.text(CSV_HEADER);
   // 64 KB chunks (measured: 1 MB chunks were 2.4x slower end to end, the rows of a big chunk outliving
   // the young-generation collections); one chunk and one unfinished row in memory at a time
   const source = createReadStream(command.file, { highWaterMark: 1 << 16 });
