@@ -132,14 +132,13 @@ function writeResult(row: SheetRow, run: RunState): void {
 
   if (errors.length > 0 || !outcome?.ok) {
     if (format === "jsonl") {
-      out.text(JSON.stringify({ row: row.row, comparison, errors }));
-      return out.lineFeed();
+      return run.json.addLine(JSON.stringify({ row: row.row, comparison, errors }));
     }
     for (const e of errors) out.text(csvLine([String(row.row), comparison ?? "", "error", "", "", "", e.column, e.message, ""]));
     return;
   }
 
-  if (format === "jsonl") return run.json.write(row.row, comparison, outcome.result);
+  if (format === "jsonl") return run.json.add(row.row, comparison, outcome.result);
   const { findings, engineVersion } = outcome.result;
   if (findings.length === 0) return out.text(csvLine([String(row.row), comparison ?? "", "clean", "", "", "", "", "", engineVersion]));
   for (const f of findings) out.text(csvLine([String(row.row), comparison ?? "", "finding", f.code, f.severity, f.subject, "", f.message, engineVersion]));
@@ -161,11 +160,14 @@ async function run(args: readonly string[]): Promise<number> {
   try {
     for await (const batch of readSheetBatches(source)) {
       for (const row of batch) writeResult(row, state);
+      // the JSON lines of a batch are queued, to print all their numbers at once
+      state.json.flush();
       await output.settle();
     }
   } catch (error) {
     if (error instanceof OutputError) throw error;
     // rows already rechecked still go out before the refusal
+    state.json.flush();
     await output.flush();
     if (isSheetError(error)) throw new CommandError(`${command.file}: ${error.message}`);
     if ((error as NodeJS.ErrnoException).code) throw new CommandError(fileProblem(command.file, error));

@@ -145,6 +145,27 @@ describe("JSON line writer", () => {
     expectSameText(written(1 << 18, (writer) => results.forEach((result, i) => writer.write(i + 1, null, result))).text, expected);
   });
 
+  it("writes queued lines in order, whatever the batches and the error lines between them", { timeout: TIMEOUT }, () => {
+    const next = random(31);
+    const items = Array.from({ length: 6000 }, (_, i) => (next() < 0.1 ? { row: i + 1, error: `{"row":${i + 1},"errors":[${JSON.stringify(someText(next))}]}` } : { row: i + 1, result: someResult(next) }));
+    const expected = items.map((item) => ("error" in item ? item.error + "\n" : plainLine(item.row, `C${item.row}`, item.result!))).join("");
+    const { text } = written(1024, (writer) => {
+      let inBatch = 0;
+      for (const item of items) {
+        if ("error" in item) writer.addLine(item.error!);
+        else writer.add(item.row, `C${item.row}`, item.result!);
+        // batches of 1 to 400 lines; sometimes a flush with nothing queued
+        if (++inBatch >= 1 + Math.floor(next() * 400)) {
+          writer.flush();
+          if (next() < 0.1) writer.flush();
+          inBatch = 0;
+        }
+      }
+      writer.flush();
+    });
+    expectSameText(text, expected);
+  });
+
   it("writes a label and a message far longer than a buffer", () => {
     const result: RecheckResult = {
       findings: [{ code: "halved-p", severity: "warning", subject: "comparison", message: "Δ".repeat(5000) + '"' + "x".repeat(5000), values: {} }],
