@@ -149,16 +149,17 @@ export class OutputBuffer {
   }
 
   /**
-   * Copies one number from `list`, the JSON text of an array of numbers, starting at `from`; returns
-   * where the next one starts. JSON.stringify prints an array's numbers straight into its own text,
-   * where String() of each number would make a string apiece.
+   * Copies one number from `list`, the JSON text of an array of numbers (as bytes), starting at `from`;
+   * returns where the next one starts. JSON.stringify prints an array's numbers straight into its own
+   * text, where String() of each number would make a string apiece; copying from bytes skips the
+   * string's representation checks on every charCodeAt.
    */
-  numberFrom(list: string, from: number): number {
+  numberFrom(list: Uint8Array, from: number): number {
     this.room(MAX_NUMBER_BYTES);
     const buffer = this.buffer;
     let used = this.used;
     let at = from;
-    for (let c = list.charCodeAt(at); c !== COMMA && c !== CLOSE_BRACKET; c = list.charCodeAt(++at)) buffer[used++] = c;
+    for (let c = list[at]; c !== COMMA && c !== CLOSE_BRACKET; c = list[++at]) buffer[used++] = c;
     this.used = used;
     return at + 1;
   }
@@ -222,7 +223,7 @@ const RECOMPUTED = utf8('],"recomputed":');
  */
 export class JsonLineWriter {
   /** a skipped check's JSON text by reason, check and subject (a SkippedCheck has no other fields) */
-  private readonly skippedText = new Map<string, Map<string, Map<string, Uint8Array>>>();
+  private readonly skippedText = new Map<string, { check: string; subject: string; text: Uint8Array }[]>();
   private skippedCount = 0;
   /** `{"code":…,"severity":…,"message":` by code, then severity */
   private readonly findingHead = new Map<string, Map<string, Uint8Array>>();
@@ -239,11 +240,14 @@ export class JsonLineWriter {
   private readonly texts: (string | null)[] = [];
   /** the numbers of the queued results' recomputed figures, in order; then their JSON text, and where the next one starts */
   private numbers: number[] = [];
-  private printed = "";
+  private printed = Buffer.allocUnsafe(1 << 16);
   private at = 1;
   /** the keys of the last result's recomputed fields by position, and their bytes */
   private readonly lastKeys: string[] = [];
   private readonly lastKeyBytes: Uint8Array[] = [];
+  /** the text values of the last result's recomputed fields by position, and their bytes */
+  private readonly lastTexts: string[] = [];
+  private readonly lastTextBytes: Uint8Array[] = [];
 
   constructor(private readonly out: OutputBuffer) {}
 
@@ -285,7 +289,10 @@ export class JsonLineWriter {
   flush(): void {
     const { rows, comparisons, results, texts, out } = this;
     if (rows.length === 0) return;
-    this.printed = JSON.stringify(this.numbers);
+    const printed = JSON.stringify(this.numbers);
+    // only digits, signs, points, "e", "null", commas and brackets: one byte a character
+    if (this.printed.length < printed.length) this.printed = Buffer.allocUnsafe(Math.max(printed.length, 2 * this.printed.length));
+    this.printed.write(printed, 0, "latin1");
     this.at = 1;
     for (let i = 0; i < rows.length; i++) {
       const result = results[i];
@@ -301,7 +308,6 @@ export class JsonLineWriter {
     results.length = 0;
     texts.length = 0;
     this.numbers = [];
-    this.printed = "";
   }
 
   private line(row: number, comparison: string | null, result: RecheckResult): void {
@@ -347,23 +353,24 @@ export class JsonLineWriter {
 
   private skippedEntry(skip: SkippedCheck): Uint8Array {
     const { check, subject, reason } = skip;
-    let byCheck = this.skippedText.get(reason);
-    if (byCheck === undefined) {
+    // one lookup by reason, then a look along the few checks and subjects that give it (three nested
+    // Map lookups per entry were 1.5 % of a run: six entries a row)
+    let entries = this.skippedText.get(reason);
+    if (entries === undefined) {
       // the reasons are no fixed list (some are put together from parts): never let the table grow without end
       if (this.skippedCount >= 10_000) {
         this.skippedText.clear();
         this.skippedCount = 0;
       }
-      this.skippedText.set(reason, (byCheck = new Map()));
+      this.skippedText.set(reason, (entries = []));
     }
-    let bySubject = byCheck.get(check);
-    if (bySubject === undefined) byCheck.set(check, (bySubject = new Map()));
-    let text = bySubject.get(subject);
-    if (text === undefined) {
-      text = utf8(JSON.stringify(skip));
-      bySubject.set(subject, text);
-      this.skippedCount++;
+    for (let i = 0; i < entries.length; i++) {
+      const entry = entries[i];
+      if (entry.check === check && entry.subject === subject) return entry.text;
     }
+    const text = utf8(JSON.stringify(skip));
+    entries.push({ check, subject, text });
+    this.skippedCount++;
     return text;
   }
 
@@ -378,8 +385,7 @@ export class JsonLineWriter {
     let first = true;
     // every result has the same fields in the same order: the n-th field's key is looked up in the table
     // only when it is not the key the n-th field had last time (a string compare instead of a Map lookup)
-    const lastKeys = this.lastKeys;
-    const lastKeyBytes = this.lastKeyBytes;
+    const { lastKeys, lastKeyBytes, lastTexts, lastTextBytes } = this;
     let position = 0;
     for (const key in recomputed) {
       const value = recomputed[key];
@@ -403,7 +409,14 @@ export class JsonLineWriter {
       if (typeof value === "number") {
         at = out.numberFrom(printed, at);
       } else if (typeof value === "string") {
-        out.bytes(this.strings.get(value));
+        // mostly the same text in the same field as last time (the RMSEA conventions): compared, not looked up
+        let bytes = lastTextBytes[n];
+        if (lastTexts[n] !== value) {
+          bytes = this.strings.get(value);
+          lastTexts[n] = value;
+          lastTextBytes[n] = bytes;
+        }
+        out.bytes(bytes);
       } else if (typeof value === "boolean") {
         out.bytes(value ? TRUE : FALSE);
       } else if (value === null) {
