@@ -2,7 +2,7 @@
 // takes each field's cell by an index worked out from the header: the literals must list the catalogue's
 // fields in its order, and every column must land in its own field, whatever order the header has.
 import { describe, expect, it } from "vitest";
-import { SHEET_COLUMNS, recordPart, resolveHeader, type SheetRow } from "@/lib/csv";
+import { SHEET_COLUMNS, checkSheetRow, normaliseDoi, recordPart, resolveHeader, type SheetRow } from "@/lib/csv";
 import { PART_ORDER } from "@/lib/csv/columns";
 import { PART_FIELDS, buildRow } from "@/lib/csv/sheet-row";
 import { readAll } from "./sheet-input";
@@ -43,5 +43,16 @@ describe("buildRow", () => {
     expect(row.restricted.df).toBeUndefined();
     const [read] = await readAll("doi,comparison,method,a_label,b_label\nhttps://doi.org/10.5555/ABC,C1,lrt,A,B\n");
     expect(read.paper.doi).toBe("10.5555/abc");
+  });
+
+  it("normalises and checks each row's own DOI when rows repeat or change it (the last one is remembered)", () => {
+    const layout = resolveHeader(["doi", "comparison", "method", "a_label", "b_label"]);
+    const cells = ["10.5555/A", "10.5555/A", "https://doi.org/10.5555/A", "not a doi", "not a doi", "10.5555/b", "not a doi", " 10.5555/B ", "10.5555/A"];
+    for (const [i, doi] of cells.entries()) {
+      const row = buildRow(layout, [doi, "C1", "lrt", "A", "B"], i + 1, NO_PROBLEMS);
+      expect(row.paper.doi, doi).toBe(normaliseDoi(doi) ?? doi);
+      const doiErrors = checkSheetRow(row).filter((e) => e.column === "doi");
+      expect(doiErrors.length, doi).toBe(normaliseDoi(doi) === undefined ? 1 : 0);
+    }
   });
 });
