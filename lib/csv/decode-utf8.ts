@@ -59,13 +59,22 @@ function unfinishedSequence(tail: Uint8Array): Uint8Array {
   return tail.subarray(tail.length);
 }
 
-/** Decodes chunk after chunk; a UTF-8 byte order mark at the start is dropped (TextDecoder's default). */
+/**
+ * Decodes chunk after chunk; a UTF-8 byte order mark at the start is dropped (TextDecoder's default).
+ * Each chunk is decoded whole, the bytes of a character it cuts off carried over to the next: in Node a
+ * TextDecoder asked to stream ({ stream: true }) leaves its fast UTF-8 path for ICU's converter, about
+ * four times slower on the bench sheet (45 ms against 12 ms for 37 MB).
+ */
 export class Utf8ChunkDecoder {
-  private readonly decoder = new TextDecoder("utf-8", { fatal: true });
+  /** for the start of the input: drops a byte order mark */
+  private readonly first = new TextDecoder("utf-8", { fatal: true });
+  /** for the rest: a U+FEFF further on is a character like any other */
+  private readonly rest = new TextDecoder("utf-8", { fatal: true, ignoreBOM: true });
+  private started = false;
   /** bytes of the input before the current chunk */
   private offset = 0;
-  /** the last (at most 3) bytes seen, enough to hold the start of a sequence split across chunks */
-  private tail = new Uint8Array(0);
+  /** the bytes at the end of the input so far that begin a character not yet complete (at most 3) */
+  private carried = new Uint8Array(0);
 
   decode(chunk: Uint8Array): string {
     if (this.offset === 0 && chunk.length >= 2 && ((chunk[0] === 0xff && chunk[1] === 0xfe) || (chunk[0] === 0xfe && chunk[1] === 0xff))) {
@@ -76,34 +85,35 @@ export class Utf8ChunkDecoder {
     if (nul >= 0) {
       throw new SheetError("not_utf8", `not UTF-8 text (NUL byte at offset ${this.offset + nul}; a binary file or UTF-16?)`);
     }
-    let text: string;
-    try {
-      text = this.decoder.decode(chunk, { stream: true });
-    } catch {
-      throw this.locate(chunk);
+    const bytes = this.carried.length === 0 ? chunk : concat(this.carried, chunk);
+    const unfinished = unfinishedSequence(bytes.length > 3 ? bytes.subarray(bytes.length - 3) : bytes);
+    // a character that no later byte can complete is refused now, as a streaming decoder refuses it
+    if (unfinished.length > 0 && firstInvalidUtf8(unfinished) >= 0) throw this.locate(chunk);
+    const complete = bytes.subarray(0, bytes.length - unfinished.length);
+    let text = "";
+    if (complete.length > 0) {
+      try {
+        text = (this.started ? this.rest : this.first).decode(complete);
+      } catch {
+        throw this.locate(chunk);
+      }
+      this.started = true;
     }
-    this.remember(chunk);
+    // slice, not subarray: keeping a view would keep the whole chunk alive
+    this.carried = unfinished.slice();
     this.offset += chunk.length;
     return text;
   }
 
-  /** Flushes the decoder at the end of the input. */
+  /** The end of the input: nothing may be left of a character. */
   end(): string {
-    try {
-      return this.decoder.decode();
-    } catch {
-      const start = this.offset - unfinishedSequence(this.tail).length;
-      throw new SheetError("not_utf8", `not UTF-8 text (the file ends inside a character that starts at offset ${start})`);
-    }
-  }
-
-  private remember(chunk: Uint8Array): void {
-    // slice, not subarray: keeping a view would keep the whole chunk alive
-    this.tail = concat(this.tail, chunk.length > 3 ? chunk.subarray(chunk.length - 3) : chunk).slice(-3);
+    if (this.carried.length === 0) return "";
+    const start = this.offset - this.carried.length;
+    throw new SheetError("not_utf8", `not UTF-8 text (the file ends inside a character that starts at offset ${start})`);
   }
 
   private locate(chunk: Uint8Array): SheetError {
-    const carried = unfinishedSequence(this.tail);
+    const carried = this.carried;
     const index = firstInvalidUtf8(concat(carried, chunk));
     if (index < 0) return new SheetError("not_utf8", `not UTF-8 text (somewhere in bytes ${this.offset}–${this.offset + chunk.length - 1})`);
     const at = this.offset - carried.length + index;
