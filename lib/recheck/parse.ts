@@ -2,7 +2,11 @@
 // FieldError (named by its DESIGN §5 sheet column) for every cell that cannot be read. Empty cells are
 // "not reported" (null), never zero.
 import {
+  CLIP_AT_ZERO,
+  CLIP_NONE,
+  CLIP_TO_UNIT,
   isBlank as isBlankImport,
+  readPrintedFigure as readPrintedFigureImport,
   readPrintedInteger as readPrintedIntegerImport,
   readPrintedNumber as readPrintedNumberImport,
   scanP as scanPImport,
@@ -31,6 +35,7 @@ import {
 // otherwise goes through an export getter, which showed up in the engine benchmark's profile.
 const isBlank = isBlankImport;
 const readPrintedInteger = readPrintedIntegerImport;
+const readPrintedFigure = readPrintedFigureImport;
 const readPrintedNumber = readPrintedNumberImport;
 const scanP = scanPImport;
 
@@ -111,9 +116,12 @@ function readNumberCell(text: string | undefined, column: string, kind: NumberKi
 }
 
 function readNumberText(text: string, column: string, kind: NumberKind, errors: FieldError[]): PrintedNumber | null {
-  if (blank(text)) return null;
-  const printed = readPrintedNumber(text);
+  // Read first, test for blank only when that fails: a blank cell has no digits, so it never reads as a
+  // number, and the cells that do read are spared a second look at their first character.
+  // "0.00" stands for [0, .005]: a statistic cannot be below zero, so the interval is clipped there.
+  const printed = readPrintedFigure(text, kind === "unit" ? CLIP_TO_UNIT : kind === "nonNegative" ? CLIP_AT_ZERO : CLIP_NONE);
   if (printed === null) {
+    if (blank(text)) return null;
     errors.push({ column, message: `"${text.trim()}" is not a number (use a decimal point and no thousands separators)` });
     return null;
   }
@@ -122,11 +130,6 @@ function readNumberText(text: string, column: string, kind: NumberKind, errors: 
   if (bad) {
     errors.push({ column, message: `${printed.text} ${KIND_RULE[kind]}` });
     return null;
-  }
-  if (kind === "nonNegative" || kind === "unit") {
-    // "0.00" stands for [0, .005]: a statistic cannot be below zero, so the interval is clipped there.
-    if (printed.lo < 0) printed.lo = 0;
-    if (kind === "unit" && printed.hi > 1) printed.hi = 1;
   }
   return printed;
 }
@@ -137,9 +140,10 @@ function readIntegerCell(text: string | undefined, column: string, min: number |
 }
 
 function readIntegerText(text: string, column: string, min: number | null, errors: FieldError[]): number | null {
-  if (blank(text)) return null;
+  // As for numbers: a blank cell never reads as an integer, so it is looked for only when reading fails.
   const value = readPrintedInteger(text);
   if (value === null) {
+    if (blank(text)) return null;
     const isNumber = readPrintedNumber(text) !== null;
     errors.push({ column, message: isNumber ? `${text.trim()} is not a whole number` : `"${text.trim()}" is not a whole number` });
     return null;

@@ -4,12 +4,12 @@
 
 /** A printed decimal number and the interval it stands for. */
 export interface PrintedNumber {
-  text: string;
-  value: number;
-  lo: number;
-  hi: number;
+  readonly text: string;
+  readonly value: number;
+  readonly lo: number;
+  readonly hi: number;
   /** decimals after the point (negative for "1e3"-style prints, where the last digit is in the thousands) */
-  decimals: number;
+  readonly decimals: number;
 }
 
 /** How a p-value was printed: "= .032", "< .001", "> .05", "ns". */
@@ -42,27 +42,94 @@ function halfUnit(decimals: number): number {
   return decimals >= 0 && decimals < HALF_UNIT.length ? HALF_UNIT[decimals] : 0.5 * Math.pow(10, -decimals);
 }
 
+/** Which ends of a figure's rounding interval are clipped: none, below at 0, or to [0, 1]. */
+export type Clip = 0 | 1 | 2;
+export const CLIP_NONE: Clip = 0;
+/** a statistic that cannot be negative: "0.00" stands for [0, .005] */
+export const CLIP_AT_ZERO: Clip = 1;
+/** a proportion (CFI): also "1.000" stands for [.9995, 1] */
+export const CLIP_TO_UNIT: Clip = 2;
+
+/**
+ * The PrintedNumber for value and decimals, its interval clipped as `clip` says. Every reader builds it
+ * here, so that the checks' reads of it see a single object shape.
+ */
+function figure(text: string, value: number, decimals: number, clip: Clip): PrintedNumber {
+  const half = halfUnit(decimals);
+  const lo = value - half;
+  const hi = value + half;
+  return { text, value, lo: clip !== CLIP_NONE && lo < 0 ? 0 : lo, hi: clip === CLIP_TO_UNIT && hi > 1 ? 1 : hi, decimals };
+}
+
 /**
  * Reads a printed decimal ("9.20", ".032", "-3.5", "−3.5" with a typographic minus, "2.1e-45") into its
  * value and rounding interval. Returns null for anything else (thousands separators, decimal commas and
  * words are rejected rather than guessed: "1,234" could be 1234 or 1.234).
  */
 export function readPrintedNumber(raw: string): PrintedNumber | null {
+  return readPrintedFigure(raw, CLIP_NONE);
+}
+
+/**
+ * readPrintedNumber with the interval clipped as `clip` says (the sheet readers know which figures
+ * cannot be negative). This is the path for what papers nearly always print, a plain decimal of at most
+ * 15 digits with nothing around it ("247.57", "-3.5", ".032"), kept short enough for the optimiser to
+ * inline it into its callers; anything else (surrounding spaces, an exponent, more digits, a malformed
+ * or blank cell) is read again from the start by readTrimmed, which gives the same result for the plain
+ * decimals too. The cell is read once: no separate blank test or trim first.
+ */
+export function readPrintedFigure(raw: string, clip: Clip): PrintedNumber | null {
+  const end = raw.length;
+  let i = 0;
+  let c = end > 0 ? raw.charCodeAt(0) : 0;
+  const negative = c === 45 /* - */;
+  if (negative) c = ++i < end ? raw.charCodeAt(i) : 0;
+  let mantissa = 0;
+  let digits = 0;
+  while (c >= 48 && c <= 57) {
+    mantissa = mantissa * 10 + (c - 48);
+    digits++;
+    c = ++i < end ? raw.charCodeAt(i) : 0;
+  }
+  let decimals = 0;
+  if (c === 46 /* . */) {
+    c = ++i < end ? raw.charCodeAt(i) : 0;
+    while (c >= 48 && c <= 57) {
+      mantissa = mantissa * 10 + (c - 48);
+      digits++;
+      decimals++;
+      c = ++i < end ? raw.charCodeAt(i) : 0;
+    }
+  }
+  if (i !== end || digits === 0 || digits > 15) return readTrimmed(raw, clip);
+  // mantissa / 10^k is one correctly rounded IEEE division, i.e. exactly what Number() returns.
+  let value = mantissa / POW10[decimals];
+  if (negative) value = -value;
+  if (value === 0) value = 0; // no negative zero in outputs
+  return figure(raw, value, decimals, clip);
+}
+
+/** Every form readPrintedNumber accepts, with the spaces around it. */
+function readTrimmed(raw: string, clip: Clip): PrintedNumber | null {
   let start = 0;
   let end = raw.length;
   while (start < end && raw.charCodeAt(start) <= 32) start++;
   while (end > start && raw.charCodeAt(end - 1) <= 32) end--;
-  return scanNumber(raw, start, end);
+  const value = scanInFull(raw, start, end);
+  if (value !== value) return null; // NaN: not a number
+  return figure(start === 0 && end === raw.length ? raw : raw.slice(start, end), value, scannedDecimals, clip);
 }
 
+// The decimals of the number scanInFull or scanValue last read. Handed back beside the returned value
+// rather than in an object, so that the p-value and integer readers build no PrintedNumber only to take
+// two fields out of it.
+let scannedDecimals = 0;
+
 /**
- * The scanner behind readPrintedNumber, on raw[start, end) (no substring is made in the common case).
- * This is the path for what papers nearly always print, a plain decimal of at most 15 digits ("247.57",
- * "-3.5", ".032"), kept short enough for the optimiser to inline it into its callers; anything else
- * (an exponent, more digits, a malformed cell) is scanned again from the start by scanNumberInFull,
- * which gives the same result for the plain decimals too.
+ * The value of the decimal printed on raw[start, end) (no substring is made), NaN when there is none;
+ * its decimals in scannedDecimals. The same short path as readPrintedFigure first, then scanInFull.
  */
-function scanNumber(raw: string, start: number, end: number): PrintedNumber | null {
+function scanValue(raw: string, start: number, end: number): number {
   let i = start;
   let c = i < end ? raw.charCodeAt(i) : 0;
   const negative = c === 45 /* - */;
@@ -84,18 +151,19 @@ function scanNumber(raw: string, start: number, end: number): PrintedNumber | nu
       c = ++i < end ? raw.charCodeAt(i) : 0;
     }
   }
-  if (i !== end || digits === 0 || digits > 15) return scanNumberInFull(raw, start, end);
-  // mantissa / 10^k is one correctly rounded IEEE division, i.e. exactly what Number() returns.
+  if (i !== end || digits === 0 || digits > 15) return scanInFull(raw, start, end);
   let value = mantissa / POW10[decimals];
   if (negative) value = -value;
-  if (value === 0) value = 0; // no negative zero in outputs
-  const half = halfUnit(decimals);
-  const text = start === 0 && end === raw.length ? raw : raw.slice(start, end);
-  return { text, value, lo: value - half, hi: value + half, decimals };
+  if (value === 0) value = 0;
+  scannedDecimals = decimals;
+  return value;
 }
 
-/** Every form readPrintedNumber accepts, on raw[start, end): signs, typographic minus, exponents, long mantissas. */
-function scanNumberInFull(raw: string, start: number, end: number): PrintedNumber | null {
+/**
+ * Every form readPrintedNumber accepts, on raw[start, end): signs, typographic minus, exponents, long
+ * mantissas. Returns the value (decimals in scannedDecimals), or NaN.
+ */
+function scanInFull(raw: string, start: number, end: number): number {
   let i = start;
   let negative = false;
   if (i < end) {
@@ -125,7 +193,7 @@ function scanNumberInFull(raw: string, start: number, end: number): PrintedNumbe
       c = ++i < end ? raw.charCodeAt(i) : 0;
     }
   }
-  if (digits === 0) return null;
+  if (digits === 0) return NaN;
   let exponent = 0;
   if (c === 101 || c === 69 /* e E */) {
     c = ++i < end ? raw.charCodeAt(i) : 0;
@@ -140,10 +208,10 @@ function scanNumberInFull(raw: string, start: number, end: number): PrintedNumbe
       expDigits++;
       c = ++i < end ? raw.charCodeAt(i) : 0;
     }
-    if (expDigits === 0) return null;
+    if (expDigits === 0) return NaN;
     if (expNegative) exponent = -exponent;
   }
-  if (i !== end) return null;
+  if (i !== end) return NaN;
   // For up to 15 digits and no exponent, mantissa / 10^k is one correctly rounded IEEE division, i.e.
   // exactly what Number() returns; longer or exponent forms go through Number() itself.
   let value: number;
@@ -154,12 +222,10 @@ function scanNumberInFull(raw: string, start: number, end: number): PrintedNumbe
     value = Number(raw.slice(signed ? start + 1 : start, end).replace("\u2212", "-"));
   }
   if (negative) value = -value;
-  if (!Number.isFinite(value)) return null;
+  if (!Number.isFinite(value)) return NaN;
   if (value === 0) value = 0; // no negative zero in outputs
-  const effectiveDecimals = decimals - exponent;
-  const half = halfUnit(effectiveDecimals);
-  const text = start === 0 && end === raw.length ? raw : raw.slice(start, end);
-  return { text, value, lo: value - half, hi: value + half, decimals: effectiveDecimals };
+  scannedDecimals = decimals - exponent;
+  return value;
 }
 
 /** Reads an exact integer count ("24", "-3"; "24.0" is accepted as 24). Null when not an integer. */
@@ -177,9 +243,12 @@ export function readPrintedInteger(raw: string): number | null {
     }
     if (i === length) return value;
   }
-  const printed = readPrintedNumber(raw);
-  if (printed === null || !Number.isInteger(printed.value)) return null;
-  return printed.value;
+  let start = 0;
+  let end = length;
+  while (start < end && raw.charCodeAt(start) <= 32) start++;
+  while (end > start && raw.charCodeAt(end - 1) <= 32) end--;
+  const value = scanInFull(raw, start, end);
+  return Number.isInteger(value) ? value : null; // NaN (not a number) is no integer either
 }
 
 function isSpace(code: number): boolean {
@@ -237,16 +306,18 @@ export function scanP(raw: string, alpha: number): PrintedP | string {
     }
   }
   while (i < end && isSpace(raw.charCodeAt(i))) i++;
-  const printed = scanNumber(raw, i, end);
+  const numberStart = i;
+  const value = scanValue(raw, numberStart, end);
+  const decimals = scannedDecimals;
   const text = start === 0 && end === raw.length ? raw : raw.slice(start, end);
-  if (printed === null) return `"${text}" is not a p-value (write e.g. .032, = .032, < .001, > .05 or ns)`;
-  const value = printed.value;
-  if (value < 0 || value > 1) return `p = ${printed.text} lies outside [0, 1]`;
+  if (value !== value) return `"${text}" is not a p-value (write e.g. .032, = .032, < .001, > .05 or ns)`;
+  if (value < 0 || value > 1) return `p = ${raw.slice(numberStart, end)} lies outside [0, 1]`;
   let lo: number;
   let hi: number;
   if (relation === "=") {
-    lo = printed.lo < 0 ? 0 : printed.lo;
-    hi = printed.hi > 1 ? 1 : printed.hi;
+    const half = halfUnit(decimals);
+    lo = value - half < 0 ? 0 : value - half;
+    hi = value + half > 1 ? 1 : value + half;
   } else if (relation === "<" || relation === "<=") {
     if (value === 0) return `p ${relation} 0 is impossible: a p-value is never below zero`;
     lo = 0;
@@ -264,7 +335,7 @@ export function scanP(raw: string, alpha: number): PrintedP | string {
     hiOpen: relation === "<",
     loOpen: relation === ">",
     value,
-    decimals: printed.decimals,
+    decimals,
     printedZero: relation === "=" && value === 0,
   };
 }

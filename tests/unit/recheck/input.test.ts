@@ -2,6 +2,7 @@
 // holds NaN or Infinity (DESIGN §4, "never a NaN").
 import { describe, expect, it } from "vitest";
 import { recheck, recheckModel, validateComparison, validateModel, type ComparisonInput } from "@/lib/recheck";
+import { parseModel } from "@/lib/recheck/parse";
 import { generateComparisons } from "@/tests/support/generate-comparisons";
 import { comparisonInput } from "./reference";
 
@@ -87,6 +88,14 @@ describe("what is not a field error", () => {
     const input = { ...base(), method: " LRT ", nested: "Yes" };
     input.restricted.estimator = "ml";
     expect(recheck(input).ok).toBe(true);
+  });
+
+  it("blank number, count, p and choice cells (spaces, tabs) are not reported, never errors", () => {
+    for (const blankText of [" ", "\t", "  \t ", " \u00a0"]) {
+      const errors: { column: string; message: string }[] = [];
+      const model = parseModel({ chisq: blankText, df: blankText, p: blankText, meanStructure: blankText }, "a_", 0.05, errors);
+      expect([model.chisq, model.df, model.p, model.meanStructure, errors], JSON.stringify(blankText)).toEqual([null, null, null, null, []]);
+    }
   });
 
   it("recomputed lists, in its JSON form, exactly the figures that were computed", () => {

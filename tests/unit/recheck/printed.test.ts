@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { readPrintedInteger, readPrintedNumber, readPrintedP } from "@/lib/recheck";
+import { CLIP_AT_ZERO, CLIP_NONE, CLIP_TO_UNIT, readPrintedFigure, type Clip } from "@/lib/recheck/printed";
 
 // Source for every expectation here: DESIGN §4.1 (a value printed with k decimals stands for
 // [x − ½·10^−k, x + ½·10^−k]; the p forms listed there).
@@ -60,6 +61,52 @@ describe("readPrintedNumber", () => {
   });
 });
 
+describe("readPrintedNumber on cells with spaces around them", () => {
+  it("reads ' 9.20\t' exactly as '9.20', with the text trimmed", () => {
+    for (const text of [" 9.20", "9.20 ", "\t9.20\t", "  -3.5e1  "]) {
+      const n = readPrintedNumber(text);
+      const bare = readPrintedNumber(text.trim());
+      expect(n, text).not.toBeNull();
+      expect([n?.text, n?.value, n?.lo, n?.hi, n?.decimals], text).toEqual([bare?.text, bare?.value, bare?.lo, bare?.hi, bare?.decimals]);
+    }
+    expect(readPrintedNumber(" 9.20 ")?.text).toBe("9.20");
+  });
+
+  it("still rejects text with a space inside or only spaces", () => {
+    for (const text of ["9 .20", "- 3", " \t ", "\u00a09.20"]) expect(readPrintedNumber(text), text).toBeNull();
+  });
+
+  it("serialises all five fields to JSON", () => {
+    expect(JSON.parse(JSON.stringify(readPrintedNumber("7517")))).toEqual({ text: "7517", value: 7517, lo: 7516.5, hi: 7517.5, decimals: 0 });
+  });
+});
+
+describe("readPrintedFigure clips the interval where the figure cannot go (DESIGN §4.1)", () => {
+  it("'0.00' of a statistic that cannot be negative stands for [0, .005]", () => {
+    const n = readPrintedFigure("0.00", CLIP_AT_ZERO);
+    expect(n?.lo).toBe(0);
+    expect(n?.hi).toBeCloseTo(0.005, 15);
+    expect(readPrintedFigure("0.00", CLIP_NONE)?.lo).toBeCloseTo(-0.005, 15);
+  });
+
+  it("'1.000' of a proportion stands for [.9995, 1], and '0.000' for [0, .0005]", () => {
+    const one = readPrintedFigure("1.000", CLIP_TO_UNIT);
+    expect(one?.lo).toBeCloseTo(0.9995, 15);
+    expect(one?.hi).toBe(1);
+    expect(readPrintedFigure("1.000", CLIP_AT_ZERO)?.hi).toBeCloseTo(1.0005, 15);
+    expect(readPrintedFigure("0.000", CLIP_TO_UNIT)?.lo).toBe(0);
+  });
+
+  it("leaves intervals inside the bounds as readPrintedNumber gives them", () => {
+    const cases: Array<[string, Clip]> = [["0.954", CLIP_TO_UNIT], [" .032 ", CLIP_TO_UNIT], ["247.572", CLIP_AT_ZERO], ["2.1e-45", CLIP_AT_ZERO]];
+    for (const [text, clip] of cases) {
+      const plain = readPrintedNumber(text);
+      const clipped = readPrintedFigure(text, clip);
+      expect([clipped?.lo, clipped?.hi], text).toEqual([plain?.lo, plain?.hi]);
+    }
+  });
+});
+
 describe("readPrintedInteger", () => {
   it("accepts whole numbers, also printed with a zero decimal", () => {
     expect(readPrintedInteger("24")).toBe(24);
@@ -69,6 +116,15 @@ describe("readPrintedInteger", () => {
 
   it("rejects fractional values", () => {
     expect(readPrintedInteger("23.47")).toBeNull();
+  });
+
+  it("reads the other printed forms of a whole number and rejects what is no number", () => {
+    expect(readPrintedInteger(" 24 ")).toBe(24);
+    expect(readPrintedInteger("+24")).toBe(24);
+    expect(readPrintedInteger("\u22123")).toBe(-3);
+    expect(readPrintedInteger("2.4e1")).toBe(24);
+    expect(readPrintedInteger("1234567890123456")).toBe(1234567890123456);
+    for (const text of ["", " ", "24x", "2,4", "2.5e0", "e3"]) expect(readPrintedInteger(text), text).toBeNull();
   });
 });
 
@@ -116,6 +172,11 @@ describe("readPrintedP", () => {
     const value = p("1.00");
     expect(value.lo).toBeCloseTo(0.995, 12);
     expect(value.hi).toBe(1);
+  });
+
+  it("names the printed figure when p lies outside [0, 1]", () => {
+    expect(readPrintedP("p = 1.20")).toEqual({ ok: false, message: "p = 1.20 lies outside [0, 1]" });
+    expect(readPrintedP("-.01")).toEqual({ ok: false, message: "p = -.01 lies outside [0, 1]" });
   });
 
   it("rejects p outside [0, 1], p < 0 and text that is not a p-value", () => {
