@@ -2,7 +2,7 @@
 // holds NaN or Infinity (DESIGN §4, "never a NaN").
 import { describe, expect, it } from "vitest";
 import { recheck, recheckModel, validateComparison, validateModel, type ComparisonInput } from "@/lib/recheck";
-import { parseModel } from "@/lib/recheck/parse";
+import { parseComparison, parseModel } from "@/lib/recheck/parse";
 import { generateComparisons } from "@/tests/support/generate-comparisons";
 import { comparisonInput } from "./reference";
 
@@ -88,6 +88,35 @@ describe("what is not a field error", () => {
     const input = { ...base(), method: " LRT ", nested: "Yes" };
     input.restricted.estimator = "ml";
     expect(recheck(input).ok).toBe(true);
+  });
+
+  it("reads every spelling of a choice the same way: codebook, other case, spaces around it", () => {
+    const read = (estimator: string) => {
+      const errors: { column: string; message: string }[] = [];
+      const model = parseModel({ estimator }, "a_", 0.05, errors);
+      return { estimator: model.estimator, robust: model.robust, errors };
+    };
+    expect(read("MLR")).toEqual({ estimator: "MLR", robust: true, errors: [] });
+    expect(read(" mlr ")).toEqual({ estimator: "MLR", robust: true, errors: [] });
+    expect(read("ML")).toEqual({ estimator: "ML", robust: false, errors: [] });
+    expect(read("Ml\t")).toEqual({ estimator: "ML", robust: false, errors: [] });
+    expect(read("WLSMV").robust).toBe(true);
+    expect(read("DWLS").robust).toBe(false);
+    expect(read("  ")).toEqual({ estimator: null, robust: false, errors: [] });
+    expect(read("MLX").errors.map((e) => e.column)).toEqual(["a_estimator"]);
+  });
+
+  it("a robust model is recognised by a printed scaled statistic when no estimator is named", () => {
+    expect(parseModel({ chisqScaled: "12.30" }, "b_", 0.05, []).robust).toBe(true);
+    expect(parseModel({ chisq: "12.30" }, "b_", 0.05, []).robust).toBe(false);
+  });
+
+  it("trims labels, also of Unicode spaces, and keeps the spaces inside them", () => {
+    const errors: { column: string; message: string }[] = [];
+    const parsed = parseComparison({ label: " C1\u00a0", sample: {}, restricted: { label: "Metric model" }, free: { label: "\u2003Configural\n" } }, 0.05, errors);
+    expect([parsed.label, parsed.restricted.label, parsed.free.label]).toEqual(["C1", "Metric model", "Configural"]);
+    expect(parseModel({ label: "" }, "a_", 0.05, errors).label).toBe("");
+    expect(parseModel({}, "a_", 0.05, errors).label).toBe("");
   });
 
   it("blank number, count, p and choice cells (spaces, tabs) are not reported, never errors", () => {
