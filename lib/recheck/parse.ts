@@ -92,9 +92,14 @@ export interface ParsedComparison {
   free: ParsedModel;
 }
 
-/** Empty or missing cell; the whitespace scan only runs for cells that start with a space. */
+/**
+ * Empty or missing cell; the whitespace scan only runs for cells that start with a space, a control
+ * character or a no-break space (which isBlank counts as a space: "\u00a0" alone is not reported).
+ */
 function blank(text: string | undefined): text is undefined {
-  return text === undefined || text === null || text.length === 0 || (text.charCodeAt(0) <= 32 && isBlank(text));
+  if (text === undefined || text === null || text.length === 0) return true;
+  const first = text.charCodeAt(0);
+  return (first <= 32 || first === 0xa0) && isBlank(text);
 }
 
 /** What a numeric cell may hold. */

@@ -120,7 +120,7 @@ describe("what is not a field error", () => {
   });
 
   it("blank number, count, p and choice cells (spaces, tabs) are not reported, never errors", () => {
-    for (const blankText of [" ", "\t", "  \t ", " \u00a0"]) {
+    for (const blankText of [" ", "\t", "  \t ", " \u00a0", "\u00a0", "\u00a0 \u00a0"]) {
       const errors: { column: string; message: string }[] = [];
       const model = parseModel({ chisq: blankText, df: blankText, p: blankText, meanStructure: blankText }, "a_", 0.05, errors);
       expect([model.chisq, model.df, model.p, model.meanStructure, errors], JSON.stringify(blankText)).toEqual([null, null, null, null, []]);
