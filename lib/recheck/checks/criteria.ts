@@ -41,7 +41,8 @@ export function checkModelCriteria(m: ParsedModel, subject: "a" | "b", n: number
     const key = subject === "a" ? "a.aicFromLoglik" : "b.aicFromLoglik";
     // the usual case: the log-likelihood convention reproduces it, and no list of conventions is built
     if (meets(aic.lo, aic.hi, primary.lo, primary.hi)) {
-      report.set(key, primary);
+      if (subject === "a") report.recomputed["a.aicFromLoglik"] = primary;
+      else report.recomputed["b.aicFromLoglik"] = primary;
     } else {
       const conventions: Convention[] = [{ name: "−2LL + 2q", value: primary }];
       // Some programs print χ²-based AIC variants (χ² + 2q; χ² − 2df); a printed value is consistent
@@ -61,7 +62,8 @@ export function checkModelCriteria(m: ParsedModel, subject: "a" | "b", n: number
     const primary = { lo: -2 * ll.hi + q * lnN, hi: -2 * ll.lo + q * lnN };
     const key = subject === "a" ? "a.bicFromLoglik" : "b.bicFromLoglik";
     if (meets(bic.lo, bic.hi, primary.lo, primary.hi)) {
-      report.set(key, primary);
+      if (subject === "a") report.recomputed["a.bicFromLoglik"] = primary;
+      else report.recomputed["b.bicFromLoglik"] = primary;
       return;
     }
     const conventions: Convention[] = [{ name: "−2LL + q·ln N", value: primary }];
@@ -73,7 +75,8 @@ export function checkModelCriteria(m: ParsedModel, subject: "a" | "b", n: number
 
 /** `lead` builds the message only when there is a finding. */
 function judgeCriterion(report: Report, subject: "a" | "b" | "comparison", lead: () => string, printed: PrintedNumber, conventions: Convention[], key: RecomputedKey): void {
-  report.set(key, conventions[0].value);
+  // a keyed store (one of four keys): only reached when the primary convention failed
+  report.recomputed[key] = conventions[0].value;
   for (const c of conventions) if (meets(printed.lo, printed.hi, c.value.lo, c.value.hi)) return;
   const others = conventions.length > 1 ? `; nor does ${conventions.slice(1).map((c) => `${c.name} = ${showInterval(c.value.lo, c.value.hi, 2)}`).join(" or ")}` : "";
   report.add("information-criteria-inconsistent", subject, `${lead()} = ${showInterval(conventions[0].value.lo, conventions[0].value.hi, 2)}${others}`, {
@@ -133,7 +136,10 @@ function checkCriterion(
 ): void {
   const { report, dChisq } = ctx;
   const expected = dChisq ? { lo: dChisq.lo - penalty, hi: dChisq.hi - penalty } : null;
-  if (expected) report.set(label === "AIC" ? "dAic" : "dBic", expected);
+  if (expected) {
+    if (label === "AIC") report.recomputed.dAic = expected;
+    else report.recomputed.dBic = expected;
+  }
   if (pa !== null && pb !== null) {
     const pair = differenceOf(pa, pb);
     if (expected && !meets(pair.lo, pair.hi, expected.lo, expected.hi)) {

@@ -43,14 +43,12 @@ const showPInterval = showPIntervalImport;
 const upperTailInterval = upperTailIntervalImport;
 
 const TEST_METHODS = new Set(["lrt", "scaled_lrt", "invariance"]);
-const SB_KEYS = { cd: "sb2001.cd", statistic: "sb2001.statistic", p: "sb2001.p" } as const;
-const SB_LOGLIK_KEYS = { cd: "sb2001Loglik.cd", statistic: "sb2001Loglik.statistic", p: "sb2001Loglik.p" } as const;
 
 /** Δdf checks; returns the df of the difference test (models' df first, else the printed Δdf) or null. */
 export function checkDfDifference(c: ParsedComparison, a: ParsedModel, b: ParsedModel, report: Report): number | null {
   const known = a.df !== null && b.df !== null && a.df >= 0 && b.df >= 0;
   const modelDdf = known ? (a.df as number) - (b.df as number) : null;
-  if (modelDdf !== null) report.set("dDf", modelDdf);
+  if (modelDdf !== null) report.recomputed.dDf = modelDdf;
   if (c.dDf !== null) {
     if (modelDdf !== null && c.dDf !== modelDdf) {
       report.add("df-difference-mismatch", "comparison", `reported Δdf = ${c.dDf}, but ${a.df} − ${b.df} = ${modelDdf}`, {
@@ -127,7 +125,7 @@ export interface DifferenceContext {
 export function checkPlainDifference(ctx: DifferenceContext): void {
   const { comparison: c, restricted: a, free: b, report } = ctx;
   const modelDiff = a.chisq !== null && b.chisq !== null ? differenceOf(a.chisq, b.chisq) : null;
-  if (modelDiff !== null) report.set("dChisq", modelDiff);
+  if (modelDiff !== null) report.recomputed.dChisq = modelDiff;
   if (c.dChisq !== null && modelDiff !== null) {
     if (!meets(c.dChisq.lo, c.dChisq.hi, modelDiff.lo, modelDiff.hi)) {
       report.add(
@@ -156,7 +154,7 @@ function checkPOfStatistic(ctx: DifferenceContext, fallback: Interval | null): v
     return;
   }
   const p = upperTailInterval(stat, testDf);
-  report.set("dP", p);
+  report.recomputed.dP = p;
   const basis = c.dChisq !== null ? `Δχ² = ${c.dChisq.text}` : `Δχ² = ${showInterval(stat.lo, stat.hi, 2)} (from the models)`;
   reportDifferenceP(c.dP, p, basis, testDf, c.alpha, report);
 }
@@ -177,9 +175,13 @@ export function checkScaledDifference(ctx: DifferenceContext): void {
     reasons.push("Satorra–Bentler 2001", "applies to MLR/MLM; MLMV, WLSMV and ULSMV differences (e.g. DIFFTEST) need output papers do not print");
   }
   for (const form of forms) {
-    const keys = form.name === "chi-square form" ? SB_KEYS : SB_LOGLIK_KEYS;
-    report.set(keys.cd, form.cd);
-    report.set(keys.statistic, form.statistic);
+    if (form.name === "chi-square form") {
+      report.recomputed["sb2001.cd"] = form.cd;
+      report.recomputed["sb2001.statistic"] = form.statistic;
+    } else {
+      report.recomputed["sb2001Loglik.cd"] = form.cd;
+      report.recomputed["sb2001Loglik.statistic"] = form.statistic;
+    }
   }
   if (forms.length === 0 && negatives.length > 0) {
     report.add(
@@ -193,13 +195,13 @@ export function checkScaledDifference(ctx: DifferenceContext): void {
   // (a derived χ²/c is too wide at printed precision to show that anyone subtracted it).
   const naive = a.chisqScaled !== null && b.chisqScaled !== null ? differenceOf(a.chisqScaled, b.chisqScaled) : null;
   const plain = a.chisq !== null && b.chisq !== null ? differenceOf(a.chisq, b.chisq) : null;
-  if (plain !== null) report.set("dChisq", plain);
+  if (plain !== null) report.recomputed.dChisq = plain;
 
   if (c.dChisq !== null) {
     const d = c.dChisq;
     const matched = forms.findIndex((form) => meets(d.lo, d.hi, form.statistic.lo, form.statistic.hi));
     if (matched >= 0) {
-      report.set("scaledFormMatched", forms[matched].name);
+      report.recomputed.scaledFormMatched = forms[matched].name;
     } else if (naive !== null && (a.robust || b.robust) && meets(d.lo, d.hi, naive.lo, naive.hi)) {
       report.add(
         "unscaled-robust-difference",
@@ -208,7 +210,7 @@ export function checkScaledDifference(ctx: DifferenceContext): void {
         { reported: d.text, naiveDifference: naive, ...(forms.length > 0 ? { scaledDifference: forms[0].statistic } : {}) },
       );
     } else if (c.method === "lrt" && plain !== null && meets(d.lo, d.hi, plain.lo, plain.hi)) {
-      report.set("differenceBasis", "normal-theory χ² (as the method lrt says)");
+      report.recomputed.differenceBasis = "normal-theory χ² (as the method lrt says)";
     } else if (forms.length > 0) {
       const impliedP = c.dP ?? null;
       const formP = testDf === null ? null : formPValues(forms, testDf, report);
@@ -268,7 +270,8 @@ function formPValues(forms: ScaledForm[], testDf: number, report: Report): Inter
   const out: Interval[] = [];
   for (const form of forms) {
     const p = upperTailInterval(form.statistic, testDf);
-    report.set(form.name === "chi-square form" ? SB_KEYS.p : SB_LOGLIK_KEYS.p, p);
+    if (form.name === "chi-square form") report.recomputed["sb2001.p"] = p;
+    else report.recomputed["sb2001Loglik.p"] = p;
     out.push(p);
   }
   return out;

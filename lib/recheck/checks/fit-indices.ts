@@ -80,7 +80,8 @@ export function checkFitIndices(m: ParsedModel, subject: "a" | "b", report: Repo
   if (m.cfi !== null) {
     const cfi = m.cfi;
     const c1 = cfiInterval(first, df, baseline, baselineDf);
-    report.set(subject === "a" ? "a.cfi" : "b.cfi", c1);
+    if (subject === "a") report.recomputed["a.cfi"] = c1;
+    else report.recomputed["b.cfi"] = c1;
     const c2 = second === null ? null : cfiInterval(second, df, baseline, baselineDf);
     if (!meets(cfi.lo, cfi.hi, c1.lo, c1.hi) && !(c2 !== null && meets(cfi.lo, cfi.hi, c2.lo, c2.hi))) {
       report.add(
@@ -98,7 +99,8 @@ export function checkFitIndices(m: ParsedModel, subject: "a" | "b", report: Repo
       report.skip("tli-mismatch", subject, "baseline χ²/df is not above 1, so TLI is undefined at this precision");
       return;
     }
-    report.set(subject === "a" ? "a.tli" : "b.tli", t1);
+    if (subject === "a") report.recomputed["a.tli"] = t1;
+    else report.recomputed["b.tli"] = t1;
     if (meets(tli.lo, tli.hi, t1.lo, t1.hi)) return;
     const t2 = second === null ? null : tliInterval(second, df, baseline, baselineDf);
     if (!(t2 !== null && meets(tli.lo, tli.hi, t2.lo, t2.hi))) {

@@ -4,6 +4,7 @@ import { chisqUpperTailInterval as chisqUpperTailIntervalImport } from "../distr
 import { showPInterval as showPIntervalImport } from "../interval";
 import type { ParsedModel, ParsedSample } from "../parse";
 import type { Report } from "../report";
+import type { Interval } from "../types";
 import { judgeP as judgePImport, modelName as modelNameImport } from "./common";
 import { checkModelCriteria as checkModelCriteriaImport } from "./criteria";
 import { type Derived, scaledStatistic as scaledStatisticImport, scalingFactor as scalingFactorImport } from "./derived";
@@ -48,28 +49,34 @@ const scaledStatistic = scaledStatisticImport;
 const scalingFactor = scalingFactorImport;
 const showPInterval = showPIntervalImport;
 
-// recomputed-figure keys per subject, written out as literals (typed as RecomputedKey by Report.set): a
-// key built at run time (`${subject}.p`) is not internalised, so Report.set's cases would compare it
-// character by character instead of by reference.
-const KEYS_A = {
-  p: "a.p",
-  rmsea: "a.rmsea",
-  rmseaConvention: "a.rmseaConvention",
-  rmseaInterval: "a.rmseaInterval",
-  rmseaIntervalConvention: "a.rmseaIntervalConvention",
-  dfRecount: "a.dfRecount",
-} as const;
-const KEYS_B = {
-  p: "b.p",
-  rmsea: "b.rmsea",
-  rmseaConvention: "b.rmseaConvention",
-  rmseaInterval: "b.rmseaInterval",
-  rmseaIntervalConvention: "b.rmseaIntervalConvention",
-  dfRecount: "b.dfRecount",
-} as const;
-/** A branch, not a keyed read `KEYS[subject]`: a keyed read whose key alternates between two names is megamorphic. */
-function keysOf(subject: "a" | "b") {
-  return subject === "a" ? KEYS_A : KEYS_B;
+// A model's recomputed figures, stored under its subject's key by a branch: each store then names its
+// property (see notRecomputed in report.ts); a keyed store `recomputed[key]` whose key alternates
+// between two names would be megamorphic.
+function storeP(report: Report, subject: "a" | "b", value: Interval): void {
+  if (subject === "a") report.recomputed["a.p"] = value;
+  else report.recomputed["b.p"] = value;
+}
+function storeRmsea(report: Report, subject: "a" | "b", point: Interval, convention: string | null): void {
+  const r = report.recomputed;
+  if (subject === "a") {
+    r["a.rmsea"] = point;
+    if (convention !== null) r["a.rmseaConvention"] = convention;
+  } else {
+    r["b.rmsea"] = point;
+    if (convention !== null) r["b.rmseaConvention"] = convention;
+  }
+}
+function storeIntervalConvention(report: Report, subject: "a" | "b", convention: string): void {
+  if (subject === "a") report.recomputed["a.rmseaIntervalConvention"] = convention;
+  else report.recomputed["b.rmseaIntervalConvention"] = convention;
+}
+function storeRmseaInterval(report: Report, subject: "a" | "b", value: Interval): void {
+  if (subject === "a") report.recomputed["a.rmseaInterval"] = value;
+  else report.recomputed["b.rmseaInterval"] = value;
+}
+function storeDfRecount(report: Report, subject: "a" | "b", value: number): void {
+  if (subject === "a") report.recomputed["a.dfRecount"] = value;
+  else report.recomputed["b.dfRecount"] = value;
 }
 
 export interface ModelCheckContext {
@@ -126,7 +133,7 @@ function checkModelP(ctx: ModelCheckContext, df: number): void {
     return;
   }
   const p = chisqUpperTailInterval(Math.max(0, stat.lo), Math.max(0, stat.hi), df);
-  report.set(keysOf(subject).p, p);
+  storeP(report, subject, p);
   if (m.p === null) {
     report.skip("model-p-mismatch", subject, "no p printed");
     return;
@@ -154,7 +161,6 @@ export function pText(text: string): string {
 
 function checkRmsea(ctx: ModelCheckContext, df: number): void {
   const { model: m, subject, report, sample } = ctx;
-  const keys = keysOf(subject);
   if (m.rmsea === null && m.rmseaLo === null && m.rmseaHi === null) {
     report.skip("rmsea-mismatch", subject, "no RMSEA printed");
     return;
@@ -182,20 +188,18 @@ function checkRmsea(ctx: ModelCheckContext, df: number): void {
   let matched: RmseaConvention | null = null;
   if (m.rmsea !== null) {
     if (primaryPointMeets(m.rmsea, stat, df, n, groups)) {
-      report.set(keys.rmsea, primaryPoint(stat, df, n, groups));
-      report.set(keys.rmseaConvention, primaryConventionName(useScaled, groups));
+      storeRmsea(report, subject, primaryPoint(stat, df, n, groups), primaryConventionName(useScaled, groups));
     } else {
       inputs = rmseaInputs(m, n, groups, df, scaled);
       conventions = rmseaConventions(inputs);
       const index = matchRmseaPoint(m.rmsea, conventions);
       if (index >= 0) {
         matched = conventions[index];
-        report.set(keys.rmsea, matched.point);
-        report.set(keys.rmseaConvention, matched.name);
+        storeRmsea(report, subject, matched.point, matched.name);
       } else {
         const primary = primaryConvention(inputs) as RmseaConvention; // stat is printed, so never null
         const tried = conventions.map((c) => c.name).join("; ");
-        report.set(keys.rmsea, primary.point);
+        storeRmsea(report, subject, primary.point, null);
         report.add(
           "rmsea-mismatch",
           subject,
@@ -212,19 +216,19 @@ function checkRmsea(ctx: ModelCheckContext, df: number): void {
     return;
   }
   if (matched !== null ? intervalMeets(m.rmseaLo, m.rmseaHi, matched) : primaryIntervalMeets(m.rmseaLo, m.rmseaHi, stat, df, n, groups)) {
-    report.set(keys.rmseaIntervalConvention, matched !== null ? matched.name : primaryConventionName(useScaled, groups));
+    storeIntervalConvention(report, subject, matched !== null ? matched.name : primaryConventionName(useScaled, groups));
     return;
   }
   inputs = inputs ?? rmseaInputs(m, n, groups, df, scaled);
   conventions = conventions ?? rmseaConventions(inputs);
   const index = matchRmseaInterval(m.rmseaLo, m.rmseaHi, conventions, -1);
   if (index >= 0) {
-    report.set(keys.rmseaIntervalConvention, conventions[index].name);
+    storeIntervalConvention(report, subject, conventions[index].name);
     return;
   }
   const first = matched ?? (primaryConvention(inputs) as RmseaConvention);
   const recomputed = recomputeRmseaInterval(first);
-  report.set(keys.rmseaInterval, recomputed);
+  storeRmseaInterval(report, subject, recomputed);
   const printed = `[${m.rmseaLo?.text ?? "–"}, ${m.rmseaHi?.text ?? "–"}]`;
   report.add(
     "rmsea-interval-mismatch",
@@ -280,7 +284,7 @@ function checkDfRecount(ctx: ModelCheckContext): void {
   const firstReading = m.meanStructure === null ? false : m.meanStructure;
   const firstRecount = recount(firstReading, p, k, g, npar);
   if (firstRecount === m.df) {
-    report.set(keysOf(subject).dfRecount, firstRecount);
+    storeDfRecount(report, subject, firstRecount);
     return;
   }
   const readings = m.meanStructure === null ? [false, true] : [m.meanStructure];
@@ -289,11 +293,11 @@ function checkDfRecount(ctx: ModelCheckContext): void {
     const df = recount(true, p, k, g, npar);
     recounts.push(df);
     if (df === m.df) {
-      report.set(keysOf(subject).dfRecount, df);
+      storeDfRecount(report, subject, df);
       return;
     }
   }
-  report.set(keysOf(subject).dfRecount, recounts[0]);
+  storeDfRecount(report, subject, recounts[0]);
   const how = readings
     .map((means, i) => {
       const fixedX = k > 0 ? ` − ${k}·${k + 1}/2${means ? ` − ${k}` : ""}` : "";
