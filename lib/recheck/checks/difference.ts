@@ -42,7 +42,6 @@ const showInterval = showIntervalImport;
 const showPInterval = showPIntervalImport;
 const upperTailInterval = upperTailIntervalImport;
 
-const TEST_METHODS = new Set(["lrt", "scaled_lrt", "invariance"]);
 
 /** Δdf checks; returns the df of the difference test (models' df first, else the printed Δdf) or null. */
 export function checkDfDifference(c: ParsedComparison, a: ParsedModel, b: ParsedModel, report: Report): number | null {
@@ -66,7 +65,8 @@ export function checkDfDifference(c: ParsedComparison, a: ParsedModel, b: Parsed
     report.skip("df-difference-mismatch", "comparison", "no Δdf printed");
   }
   const testDf = modelDdf ?? c.dDf;
-  if (c.method !== null && TEST_METHODS.has(c.method) && testDf === 0) {
+  // the methods that are a difference test (comparisons, not a Set: see isMlFamily)
+  if (testDf === 0 && (c.method === "lrt" || c.method === "scaled_lrt" || c.method === "invariance")) {
     const how = modelDdf !== null ? `both models have df = ${a.df}` : "the reported Δdf is 0";
     report.add("zero-df-difference", "comparison", `${how}: ${c.method === "scaled_lrt" ? "a" : "an"} ${c.method} comparison needs Δdf > 0, so no difference test exists`, { dDf: 0 });
   }
@@ -97,10 +97,14 @@ export function checkNegativeDifference(c: ParsedComparison, a: ParsedModel, b: 
   }
 }
 
-/** Raises the p verdict of a difference test. */
-function reportDifferenceP(p: PrintedP, recomputed: Interval, basis: string, df: number, alpha: number, report: Report): void {
+/**
+ * Raises the p verdict of a difference test of `stat` (the printed Δχ² when there is one). The basis of
+ * the message is built here, after the verdict: most p are consistent and need no message.
+ */
+function reportDifferenceP(p: PrintedP, recomputed: Interval, printedStat: PrintedNumber | null, stat: Interval, df: number, alpha: number, report: Report): void {
   const verdict = judgeP(p, recomputed.lo, recomputed.hi, alpha);
   if (verdict === "consistent") return;
+  const basis = printedStat !== null ? `Δχ² = ${printedStat.text}` : `Δχ² = ${showInterval(stat.lo, stat.hi, 2)} (from the models)`;
   const because = `${basis} with Δdf = ${df} gives p = ${showPInterval(recomputed.lo, recomputed.hi)}`;
   const values = { reported: p.text, recomputed, df, alpha };
   if (verdict === "halved" || verdict === "halved-changed") {
@@ -155,8 +159,7 @@ function checkPOfStatistic(ctx: DifferenceContext, fallback: Interval | null): v
   }
   const p = upperTailInterval(stat, testDf);
   report.recomputed.dP = p;
-  const basis = c.dChisq !== null ? `Δχ² = ${c.dChisq.text}` : `Δχ² = ${showInterval(stat.lo, stat.hi, 2)} (from the models)`;
-  reportDifferenceP(c.dP, p, basis, testDf, c.alpha, report);
+  reportDifferenceP(c.dP, p, c.dChisq, stat, testDf, c.alpha, report);
 }
 
 /** Scaled (robust) difference: Satorra–Bentler forms, the naive difference of scaled χ², and the p. */

@@ -5,7 +5,7 @@
 // taken as 1 when the free model has df = 0. Every factor is a printed value, so cd and T are carried
 // as intervals: a small cd makes T very sensitive to the printed decimals.
 import type { ParsedModel } from "../parse";
-import type { Estimator, Interval } from "../types";
+import type { Interval } from "../types";
 import { scalingFactor as scalingFactorImport } from "./derived";
 
 // Imported functions bound once: under tsx (CommonJS output, as the CLI runs) each call to an import
@@ -27,11 +27,9 @@ export type FormOutcome =
   | { kind: "negative"; name: ScaledFormName; cd: Interval; cdValue: number }
   | { kind: "unavailable"; name: ScaledFormName; reason: string };
 
-/** Estimators whose scaled χ² is a plain mean scaling, to which the 2001 difference applies. */
-const MEAN_SCALED: ReadonlySet<Estimator> = new Set<Estimator>(["MLR", "MLM"]);
-
+/** Does the 2001 difference apply: MLR and MLM, whose scaled χ² is a plain mean scaling. */
 export function sbApplies(m: ParsedModel): boolean {
-  return m.estimator === null ? m.robust : MEAN_SCALED.has(m.estimator);
+  return m.estimator === null ? m.robust : m.estimator === "MLR" || m.estimator === "MLM";
 }
 
 /** T = Δ / cd for an interval Δ and a positive interval cd (both ends of each considered). */
