@@ -25,7 +25,6 @@ import {
   parseModel as parseModelImport,
   parseSample as parseSampleImport,
   type ParsedComparison,
-  type ParsedModel,
 } from "./parse";
 import { Report } from "./report";
 import { ENGINE_VERSION, resolveSettings as resolveSettingsImport } from "./settings";
@@ -80,8 +79,11 @@ export function recheckModel(model: ModelInput, sample: SampleInput, settings?: 
   }
 }
 
-/** Model A must be the restricted one (more df; failing df, fewer parameters). Returns [restricted, free]. */
-function orderModels(c: ParsedComparison, report: Report): [ParsedModel, ParsedModel] {
+/**
+ * Model A must be the restricted one (more df; failing df, fewer parameters). Returns whether A and B
+ * are to be swapped (a boolean rather than a [restricted, free] pair, which was allocated per comparison).
+ */
+function modelsSwapped(c: ParsedComparison, report: Report): boolean {
   const a = c.restricted;
   const b = c.free;
   if (a.df !== null && b.df !== null && a.df >= 0 && b.df >= 0) {
@@ -90,24 +92,26 @@ function orderModels(c: ParsedComparison, report: Report): [ParsedModel, ParsedM
         aDf: a.df,
         bDf: b.df,
       });
-      return [b, a];
+      return true;
     }
-    return [a, b];
+    return false;
   }
   if (a.npar !== null && b.npar !== null && a.npar > b.npar) {
     report.add("restricted-model-order", "comparison", `model A has ${a.npar} free parameters but model B has ${b.npar}: the restricted model (fewer parameters) belongs in the a_ columns; checked with them swapped`, {
       aNpar: a.npar,
       bNpar: b.npar,
     });
-    return [b, a];
+    return true;
   }
-  return [a, b];
+  return false;
 }
 
 function runComparison(c: ParsedComparison, settings: RecheckSettings, report: Report): void {
   checkModel({ model: c.restricted, subject: "a", sample: c.sample, alpha: c.alpha, report, inComparison: true });
   checkModel({ model: c.free, subject: "b", sample: c.sample, alpha: c.alpha, report, inComparison: true });
-  const [restricted, free] = orderModels(c, report);
+  const swapped = modelsSwapped(c, report);
+  const restricted = swapped ? c.free : c.restricted;
+  const free = swapped ? c.restricted : c.free;
 
   if ((c.method === "lrt" || c.method === "scaled_lrt") && c.nested === "no") {
     report.add("lrt-on-non-nested", "comparison", `${c.method === "scaled_lrt" ? "a" : "an"} ${c.method} comparison of models recorded as not nested: the chi-square difference is only a test for nested models`, {

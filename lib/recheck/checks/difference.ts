@@ -23,6 +23,7 @@ import {
   chisqForm as chisqFormImport,
   loglikForm as loglikFormImport,
   sbApplies as sbAppliesImport,
+  type FormOutcome,
   type ScaledForm,
 } from "./scaled";
 
@@ -165,46 +166,43 @@ function checkPOfStatistic(ctx: DifferenceContext, fallback: Interval | null): v
 /** Scaled (robust) difference: Satorra–Bentler forms, the naive difference of scaled χ², and the p. */
 export function checkScaledDifference(ctx: DifferenceContext): void {
   const { comparison: c, restricted: a, free: b, testDf, report } = ctx;
-  const forms: ScaledForm[] = [];
-  const negatives: string[] = [];
-  const reasons: string[] = [];
-  if (sbApplies(a) && sbApplies(b)) {
-    for (const outcome of [chisqForm(a, b), loglikForm(a, b)]) {
-      if (outcome.kind === "form") forms.push(outcome.form);
-      else if (outcome.kind === "negative") negatives.push(`${outcome.name}: cd = ${show(outcome.cdValue, 4)}`);
-      else reasons.push(outcome.name, outcome.reason);
-    }
-  } else {
-    reasons.push("Satorra–Bentler 2001", "applies to MLR/MLM; MLMV, WLSMV and ULSMV differences (e.g. DIFFTEST) need output papers do not print");
+  // The two outcomes held in variables, the forms as a list of its final length, and the texts of
+  // negative and unavailable forms built only when a finding or a skip needs them.
+  const applies = sbApplies(a) && sbApplies(b);
+  const chisqOutcome = applies ? chisqForm(a, b) : null;
+  const loglikOutcome = applies ? loglikForm(a, b) : null;
+  const chisqSb = chisqOutcome !== null && chisqOutcome.kind === "form" ? chisqOutcome.form : null;
+  const loglikSb = loglikOutcome !== null && loglikOutcome.kind === "form" ? loglikOutcome.form : null;
+  const forms: ScaledForm[] = chisqSb !== null ? (loglikSb !== null ? [chisqSb, loglikSb] : [chisqSb]) : loglikSb !== null ? [loglikSb] : [];
+  if (chisqSb !== null) {
+    report.recomputed["sb2001.cd"] = chisqSb.cd;
+    report.recomputed["sb2001.statistic"] = chisqSb.statistic;
   }
-  for (const form of forms) {
-    if (form.name === "chi-square form") {
-      report.recomputed["sb2001.cd"] = form.cd;
-      report.recomputed["sb2001.statistic"] = form.statistic;
-    } else {
-      report.recomputed["sb2001Loglik.cd"] = form.cd;
-      report.recomputed["sb2001Loglik.statistic"] = form.statistic;
-    }
+  if (loglikSb !== null) {
+    report.recomputed["sb2001Loglik.cd"] = loglikSb.cd;
+    report.recomputed["sb2001Loglik.statistic"] = loglikSb.statistic;
   }
-  if (forms.length === 0 && negatives.length > 0) {
+  if (forms.length === 0 && ((chisqOutcome !== null && chisqOutcome.kind === "negative") || (loglikOutcome !== null && loglikOutcome.kind === "negative"))) {
+    const negatives = negativeText(chisqOutcome, loglikOutcome);
     report.add(
       "negative-scaling-correction",
       "comparison",
-      `the scaling correction of the difference is not positive (${negatives.join("; ")}), so the 2001 scaled difference is undefined; the strictly positive 2010 version needs output papers rarely print`,
-      { forms: negatives.join("; ") },
+      `the scaling correction of the difference is not positive (${negatives}), so the 2001 scaled difference is undefined; the strictly positive 2010 version needs output papers rarely print`,
+      { forms: negatives },
     );
   }
   // The naive difference of the *printed* scaled statistics: what a paper subtracting them would get
   // (a derived χ²/c is too wide at printed precision to show that anyone subtracted it).
-  const naive = a.chisqScaled !== null && b.chisqScaled !== null ? differenceOf(a.chisqScaled, b.chisqScaled) : null;
+  // Only needed when the printed Δχ² matches no form, so computed there.
   const plain = a.chisq !== null && b.chisq !== null ? differenceOf(a.chisq, b.chisq) : null;
   if (plain !== null) report.recomputed.dChisq = plain;
 
   if (c.dChisq !== null) {
     const d = c.dChisq;
-    const matched = forms.findIndex((form) => meets(d.lo, d.hi, form.statistic.lo, form.statistic.hi));
-    if (matched >= 0) {
-      report.recomputed.scaledFormMatched = forms[matched].name;
+    const matched = chisqSb !== null && meets(d.lo, d.hi, chisqSb.statistic.lo, chisqSb.statistic.hi) ? chisqSb : loglikSb !== null && meets(d.lo, d.hi, loglikSb.statistic.lo, loglikSb.statistic.hi) ? loglikSb : null;
+    const naive = matched === null && a.chisqScaled !== null && b.chisqScaled !== null ? differenceOf(a.chisqScaled, b.chisqScaled) : null;
+    if (matched !== null) {
+      report.recomputed.scaledFormMatched = matched.name;
     } else if (naive !== null && (a.robust || b.robust) && meets(d.lo, d.hi, naive.lo, naive.hi)) {
       report.add(
         "unscaled-robust-difference",
@@ -231,7 +229,7 @@ export function checkScaledDifference(ctx: DifferenceContext): void {
         recomputed: plain,
       });
     } else {
-      report.skip("scaled-difference-mismatch", "comparison", joinReasons(reasons));
+      report.skip("scaled-difference-mismatch", "comparison", reasonsText(applies, chisqOutcome, loglikOutcome));
     }
     // The paper's p came from its printed statistic.
     checkPOfStatistic(ctx, null);
@@ -249,11 +247,11 @@ export function checkScaledDifference(ctx: DifferenceContext): void {
   const printedP = c.dP;
   if (forms.length === 0) {
     if (c.method === "lrt" && plain !== null) checkPOfStatistic(ctx, plain);
-    else report.skip("scaled-difference-mismatch", "comparison", joinReasons(reasons));
+    else report.skip("scaled-difference-mismatch", "comparison", reasonsText(applies, chisqOutcome, loglikOutcome));
     return;
   }
   const formP = formPValues(forms, testDf, report);
-  if (formP.some((p) => meets(printedP.lo, printedP.hi, p.lo, p.hi))) return;
+  for (const p of formP) if (meets(printedP.lo, printedP.hi, p.lo, p.hi)) return;
   const changed = formP.every((p) => conclusionChanged(printedP, p.lo, p.hi, c.alpha));
   const pTextAll = forms.map((form, i) => `p = ${showPInterval(formP[i].lo, formP[i].hi)} (${form.name}, T = ${showInterval(form.statistic.lo, form.statistic.hi, 2)})`).join(" or ");
   report.add(
@@ -280,10 +278,18 @@ function formPValues(forms: ScaledForm[], testDf: number, report: Report): Inter
   return out;
 }
 
-/** reasons holds (name, reason) pairs, joined only when a check is actually skipped. */
-function joinReasons(reasons: string[]): string {
+/** "chi-square form: cd = −0.1234; …" for the forms whose cd is not positive. */
+function negativeText(...outcomes: (FormOutcome | null)[]): string {
   const parts: string[] = [];
-  for (let i = 0; i + 1 < reasons.length; i += 2) parts.push(`${reasons[i]}: ${reasons[i + 1]}`);
+  for (const o of outcomes) if (o !== null && o.kind === "negative") parts.push(`${o.name}: cd = ${show(o.cdValue, 4)}`);
+  return parts.join("; ");
+}
+
+/** Why no scaled difference was computed, joined only when a check is actually skipped. */
+function reasonsText(applies: boolean, ...outcomes: (FormOutcome | null)[]): string {
+  if (!applies) return "Satorra–Bentler 2001: applies to MLR/MLM; MLMV, WLSMV and ULSMV differences (e.g. DIFFTEST) need output papers do not print";
+  const parts: string[] = [];
+  for (const o of outcomes) if (o !== null && o.kind === "unavailable") parts.push(`${o.name}: ${o.reason}`);
   return parts.length > 0 ? parts.join("; ") : "no scaled difference computable";
 }
 

@@ -287,16 +287,14 @@ function checkDfRecount(ctx: ModelCheckContext): void {
     storeDfRecount(report, subject, firstRecount);
     return;
   }
-  const readings = m.meanStructure === null ? [false, true] : [m.meanStructure];
-  const recounts: number[] = [firstRecount];
-  if (readings.length > 1) {
-    const df = recount(true, p, k, g, npar);
-    recounts.push(df);
-    if (df === m.df) {
-      storeDfRecount(report, subject, df);
-      return;
-    }
+  // without a printed mean structure, the reading with means; the lists are built only for a message
+  const secondRecount = m.meanStructure === null ? recount(true, p, k, g, npar) : null;
+  if (secondRecount === m.df) {
+    storeDfRecount(report, subject, secondRecount);
+    return;
   }
+  const readings = secondRecount !== null ? [false, true] : [firstReading];
+  const recounts = secondRecount !== null ? [firstRecount, secondRecount] : [firstRecount];
   storeDfRecount(report, subject, recounts[0]);
   const how = readings
     .map((means, i) => {
