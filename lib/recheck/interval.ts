@@ -50,7 +50,8 @@ function withoutTrailingZeros(s: string): string {
 export function showP(p: number): string {
   if (p === 0) return "0";
   if (p < 1e-3) return formatMinus(p.toExponential(2));
-  return String(Number(p.toFixed(4)));
+  // a toFixed(4) string of a p ≤ 1 has at most 5 significant digits (see withoutTrailingZeros)
+  return withoutTrailingZeros(p.toFixed(4));
 }
 
 export function showInterval(lo: number, hi: number, digits = 3): string {

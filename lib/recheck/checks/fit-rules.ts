@@ -18,10 +18,34 @@ function fails(m: ParsedModel, cutoffs: RecheckSettings["fitCutoffs"]): boolean 
   return (m.rmsea !== null && m.rmsea.lo > cutoffs.rmseaMax) || (m.cfi !== null && m.cfi.hi < cutoffs.cfiMin);
 }
 
+// The cutoffs as text, converted once per value rather than for every message (a third of the
+// benchmark's consistent comparisons raise poor-fit-both). Only strings are kept, so no result shares
+// anything mutable.
+let rmseaMaxValue = Number.NaN;
+let rmseaMaxText = "";
+let cfiMinValue = Number.NaN;
+let cfiMinText = "";
+
+function rmseaCutoffText(x: number): string {
+  if (x !== rmseaMaxValue) {
+    rmseaMaxValue = x;
+    rmseaMaxText = `${x}`;
+  }
+  return rmseaMaxText;
+}
+
+function cfiCutoffText(x: number): string {
+  if (x !== cfiMinValue) {
+    cfiMinValue = x;
+    cfiMinText = `${x}`;
+  }
+  return cfiMinText;
+}
+
 function whyFails(m: ParsedModel, cutoffs: RecheckSettings["fitCutoffs"]): string {
   // the reasons joined by ", ", without building a list for them
-  const rmsea = m.rmsea !== null && m.rmsea.lo > cutoffs.rmseaMax ? `RMSEA = ${m.rmsea.text} > ${cutoffs.rmseaMax}` : "";
-  const cfi = m.cfi !== null && m.cfi.hi < cutoffs.cfiMin ? `CFI = ${m.cfi.text} < ${cutoffs.cfiMin}` : "";
+  const rmsea = m.rmsea !== null && m.rmsea.lo > cutoffs.rmseaMax ? `RMSEA = ${m.rmsea.text} > ${rmseaCutoffText(cutoffs.rmseaMax)}` : "";
+  const cfi = m.cfi !== null && m.cfi.hi < cutoffs.cfiMin ? `CFI = ${m.cfi.text} < ${cfiCutoffText(cutoffs.cfiMin)}` : "";
   return rmsea === "" ? cfi : cfi === "" ? rmsea : `${rmsea}, ${cfi}`;
 }
 
