@@ -67,7 +67,7 @@ export function showPInterval(lo: number, hi: number): string {
 }
 
 function formatMinus(s: string): string {
-  return s.replace("-", "−");
+  return s.replaceAll("-", "−");
 }
 
 /** A number for `values`/`recomputed`: never NaN or Infinity in stored JSON. */

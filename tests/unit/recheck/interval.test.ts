@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { showP, showPInterval } from "@/lib/recheck/interval";
+import { show, showP, showPInterval } from "@/lib/recheck/interval";
 
 describe("showP", () => {
   it("prints p of at least .001 with at most four decimals and no trailing zeros", () => {
@@ -30,5 +30,14 @@ describe("showP", () => {
   it("collapses an interval whose ends print alike", () => {
     expect(showPInterval(0.04999, 0.05001)).toBe("0.05");
     expect(showPInterval(0.04, 0.06)).toBe("[0.04, 0.06]");
+  });
+});
+
+describe("show", () => {
+  it("writes every minus sign of a message number as U+2212, the exponent's too", () => {
+    expect(show(-0.0001)).toBe("−1.00e−4");
+    expect(show(0.0001)).toBe("1.00e−4");
+    expect(show(-3.5)).toBe("−3.5");
+    expect(show(-2.5e9)).toBe("−2.50e+9");
   });
 });
