@@ -11,6 +11,7 @@
 import { chisqUpperTail } from "@/lib/recheck/distributions/chisq";
 import { noncentralityForCdf } from "@/lib/recheck/distributions/noncentral";
 import type { ComparisonInput, Estimator, Method, ModelInput } from "@/lib/recheck/types";
+import { mulberry32 as prng } from "./mulberry32";
 
 /** The planted error kinds, named by the finding each should raise. */
 export const PLANTED_ERRORS = [
@@ -54,18 +55,6 @@ export interface GenerateOptions {
   seed: number;
   /** share of comparisons with one planted error (default 0.25) */
   errorShare?: number;
-}
-
-/** Mulberry32 (Tommy Ettinger's public-domain 32-bit PRNG): small, fast and deterministic. */
-function prng(seed: number): () => number {
-  let state = seed >>> 0;
-  return () => {
-    state = (state + 0x6d2b79f5) >>> 0;
-    let t = state;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
 }
 
 type Random = () => number;

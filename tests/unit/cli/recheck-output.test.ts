@@ -7,6 +7,7 @@ import { JsonLineWriter, OutputBuffer } from "@/lib/cli/recheck-output";
 import { recheck } from "@/lib/recheck";
 import type { Finding, RecheckResult, SkippedCheck } from "@/lib/recheck/types";
 import { generateComparisons } from "../../support/generate-comparisons";
+import { mulberry32 as random } from "@/tests/support/mulberry32";
 
 /** What the command printed before it had a writer of its own: JSON.stringify of the §4.5 object. */
 function plainLine(row: number, comparison: string | null, result: RecheckResult): string {
@@ -31,18 +32,6 @@ function expectSameText(actual: string, expected: string): void {
   while (at < actual.length && actual[at] === expected[at]) at++;
   const around = (text: string) => JSON.stringify(text.slice(Math.max(0, at - 60), at + 60));
   expect.fail(`differs at character ${at} of ${expected.length}: got ${around(actual)}, expected ${around(expected)}`);
-}
-
-/** A small deterministic generator (mulberry32), so that a failure can be replayed. */
-function random(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
 }
 
 /** Any double: random bits, so every exponent, subnormals, NaN and ±Infinity all turn up. */

@@ -4,17 +4,7 @@
 import { describe, expect, it } from "vitest";
 import { SheetError } from "@/lib/csv";
 import { Utf8ChunkDecoder, firstInvalidUtf8 } from "@/lib/csv/decode-utf8";
-
-function random(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { mulberry32 as random } from "@/tests/support/mulberry32";
 
 /**
  * The reference: TextDecoder in streaming mode for the text; for a refusal, the byte that the WHATWG

@@ -5,20 +5,10 @@
 import Papa from "papaparse";
 import { describe, expect, it } from "vitest";
 import { splitPlainRecords } from "@/lib/csv/read-sheet";
+import { mulberry32 as random } from "@/tests/support/mulberry32";
 
 type Delimiter = "," | ";";
 type Newline = "\n" | "\r\n" | "\r";
-
-function random(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 const PLAIN = ["a", "9", ".", " ", "χ", "'", "-"];
 

@@ -1,0 +1,14 @@
+/**
+ * Mulberry32 (Tommy Ettinger's public-domain 32-bit PRNG): small, fast and deterministic, so that a
+ * generated benchmark sheet or a failing randomised test can be replayed from its seed.
+ */
+export function mulberry32(seed: number): () => number {
+  let state = seed >>> 0;
+  return () => {
+    state = (state + 0x6d2b79f5) >>> 0;
+    let t = state;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
