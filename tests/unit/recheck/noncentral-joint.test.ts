@@ -3,7 +3,7 @@ import { noncentralCdfAtLeast, noncentralCdfTests, noncentralChisqCdf } from "@/
 import { mulberry32 } from "@/tests/support/mulberry32";
 
 // noncentralCdfTests sums the two tests of a pair (first and second, third and fourth) in one joint
-// pass when their Poisson modes m, m_B are close (4(m_B − m)² ≤ μ), and takes the Poisson weight at
+// pass when their Poisson modes m, m_B are close ((m_B − m)² ≤ μ + 1), and takes the Poisson weight at
 // the mode from Stirling's series. The reference here is the full series (noncentralChisqCdf), an
 // independent evaluation: it takes its weights from gammaPrefactor and sums to convergence.
 
@@ -25,7 +25,7 @@ function expected(f: number[], targets: number[]): number {
 function joint(lambdaA: number, lambdaB: number): boolean {
   const mu = lambdaA / 2;
   const d = Math.floor(lambdaB / 2) - Math.floor(mu);
-  return lambdaA > 0 && lambdaB > 0 && 4 * d * d <= mu;
+  return lambdaA > 0 && lambdaB > 0 && d * d <= mu + 1;
 }
 
 describe("noncentralCdfTests: pairs of nearby noncentralities in one pass", () => {
