@@ -27,8 +27,9 @@ export function chisqUpperTail(x: number, df: number): number {
 
 /**
  * The upper tails at both ends of a statistic's interval [lo, hi] (0 ≤ lo ≤ hi): the p interval
- * [P(X > hi), P(X > lo)]. P(X > hi) is chisqUpperTail(hi, df) exactly; P(X > lo) comes from it by the
- * short Taylor integral of regularizedGammaQInterval, about a third of the cost of a second evaluation.
+ * [P(X > hi), P(X > lo)]. P(X > hi) agrees with chisqUpperTail(hi, df) within ~1e-14 relative (the same
+ * quantity by cheaper evaluations, see regularizedGammaQInterval); P(X > lo) comes from it by the short
+ * Taylor integral of regularizedGammaQInterval, about a third of the cost of a second evaluation.
  */
 export function chisqUpperTailInterval(lo: number, hi: number, df: number): Interval {
   if (df === 0) return { lo: 0, hi: 0 };
