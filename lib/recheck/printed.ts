@@ -50,12 +50,16 @@ export const CLIP_AT_ZERO: Clip = 1;
 /** a proportion (CFI): also "1.000" stands for [.9995, 1] */
 export const CLIP_TO_UNIT: Clip = 2;
 
-/**
- * The PrintedNumber for value and decimals, its interval clipped as `clip` says. Every reader builds it
- * here, so that the checks' reads of it see a single object shape.
- */
+/** The PrintedNumber for value and decimals, its interval clipped as `clip` says. */
 function figure(text: string, value: number, decimals: number, clip: Clip): PrintedNumber {
-  const half = halfUnit(decimals);
+  return bounded(text, value, halfUnit(decimals), decimals, clip);
+}
+
+/**
+ * figure() with the half rounding unit already known. Every reader builds its PrintedNumber here, so
+ * that the checks' reads of it see a single object shape.
+ */
+function bounded(text: string, value: number, half: number, decimals: number, clip: Clip): PrintedNumber {
   const lo = value - half;
   const hi = value + half;
   return { text, value, lo: clip !== CLIP_NONE && lo < 0 ? 0 : lo, hi: clip === CLIP_TO_UNIT && hi > 1 ? 1 : hi, decimals };
@@ -79,34 +83,41 @@ export function readPrintedNumber(raw: string): PrintedNumber | null {
  * decimals too. The cell is read once: no separate blank test or trim first.
  */
 export function readPrintedFigure(raw: string, clip: Clip): PrintedNumber | null {
+  // One loop over the characters, the decimal point found by its position: the digit test is a single
+  // unsigned comparison, and the counts of digits and decimals come from positions instead of counters
+  // kept per character. Each character is read once (a charCodeAt compiles to a dispatch on the
+  // string's representation), the first one too. Tried: integer and fraction part in two loops, no gain.
   const end = raw.length;
+  if (end === 0) return null;
+  let c = raw.charCodeAt(0);
   let i = 0;
-  let c = end > 0 ? raw.charCodeAt(0) : 0;
-  const negative = c === 45 /* - */;
-  if (negative) c = ++i < end ? raw.charCodeAt(i) : 0;
+  if (c === 45 /* - */) {
+    if (end === 1) return null; // "-" alone
+    c = raw.charCodeAt(1);
+    i = 1;
+  }
+  const first = i;
   let mantissa = 0;
-  let digits = 0;
-  while (c >= 48 && c <= 57) {
-    mantissa = mantissa * 10 + (c - 48);
-    digits++;
-    c = ++i < end ? raw.charCodeAt(i) : 0;
+  let point = -1;
+  for (;;) {
+    const d = c - 48; // 0–9 for a digit; -2 for "."
+    if (d >>> 0 <= 9) mantissa = mantissa * 10 + d;
+    else if (d === -2 && point < 0) point = i;
+    else break;
+    if (++i >= end) break;
+    c = raw.charCodeAt(i);
   }
-  let decimals = 0;
-  if (c === 46 /* . */) {
-    c = ++i < end ? raw.charCodeAt(i) : 0;
-    while (c >= 48 && c <= 57) {
-      mantissa = mantissa * 10 + (c - 48);
-      digits++;
-      decimals++;
-      c = ++i < end ? raw.charCodeAt(i) : 0;
-    }
-  }
-  if (i !== end || digits === 0 || digits > 15) return readTrimmed(raw, clip);
-  // mantissa / 10^k is one correctly rounded IEEE division, i.e. exactly what Number() returns.
-  let value = mantissa / POW10[decimals];
-  if (negative) value = -value;
+  const digits = point < 0 ? end - first : end - first - 1;
+  if (i < end || digits <= 0 || digits > 15) return readTrimmed(raw, clip);
+  const decimals = point < 0 ? 0 : end - point - 1;
+  // mantissa / 10^k is one correctly rounded IEEE division, i.e. exactly what Number() returns; so is
+  // 0.5 / 10^k, the double nearest ½·10^−k: what halfUnit gives for these k ≤ 15 (its table to k = 12,
+  // 0.5·10^−k above, which equals it for k = 13, 14, 15), without a second table look-up.
+  const scale = POW10[decimals];
+  let value = mantissa / scale;
+  if (first === 1) value = -value;
   if (value === 0) value = 0; // no negative zero in outputs
-  return figure(raw, value, decimals, clip);
+  return bounded(raw, value, 0.5 / scale, decimals, clip);
 }
 
 /** Every form readPrintedNumber accepts, with the spaces around it. */
@@ -130,30 +141,21 @@ let scannedDecimals = 0;
  * its decimals in scannedDecimals. The same short path as readPrintedFigure first, then scanInFull.
  */
 function scanValue(raw: string, start: number, end: number): number {
-  let i = start;
-  let c = i < end ? raw.charCodeAt(i) : 0;
-  const negative = c === 45 /* - */;
-  if (negative) c = ++i < end ? raw.charCodeAt(i) : 0;
+  const first = start < end && raw.charCodeAt(start) === 45 /* - */ ? start + 1 : start;
   let mantissa = 0;
-  let digits = 0;
-  while (c >= 48 && c <= 57) {
-    mantissa = mantissa * 10 + (c - 48);
-    digits++;
-    c = ++i < end ? raw.charCodeAt(i) : 0;
+  let point = -1;
+  let i = first;
+  for (; i < end; i++) {
+    const d = raw.charCodeAt(i) - 48;
+    if (d >>> 0 <= 9) mantissa = mantissa * 10 + d;
+    else if (d === -2 && point < 0) point = i;
+    else break;
   }
-  let decimals = 0;
-  if (c === 46 /* . */) {
-    c = ++i < end ? raw.charCodeAt(i) : 0;
-    while (c >= 48 && c <= 57) {
-      mantissa = mantissa * 10 + (c - 48);
-      digits++;
-      decimals++;
-      c = ++i < end ? raw.charCodeAt(i) : 0;
-    }
-  }
-  if (i !== end || digits === 0 || digits > 15) return scanInFull(raw, start, end);
+  const digits = point < 0 ? end - first : end - first - 1;
+  if (i !== end || digits <= 0 || digits > 15) return scanInFull(raw, start, end);
+  const decimals = point < 0 ? 0 : end - point - 1;
   let value = mantissa / POW10[decimals];
-  if (negative) value = -value;
+  if (first !== start) value = -value;
   if (value === 0) value = 0;
   scannedDecimals = decimals;
   return value;
@@ -269,11 +271,17 @@ export function readPrintedP(raw: string, alpha = 0.05): ReadResult<PrintedP> {
 
 /** readPrintedP without the result wrapper: the PrintedP, or the error message. */
 export function scanP(raw: string, alpha: number): PrintedP | string {
+  // Each character before the number is read once: c holds raw[i] (0 past the end) as the scan moves.
   let start = 0;
   let end = raw.length;
-  while (start < end && raw.charCodeAt(start) <= 32) start++;
-  while (end > start && (raw.charCodeAt(end - 1) <= 32 || raw.charCodeAt(end - 1) === 42 /* * */)) end--;
-  const first = start < end ? raw.charCodeAt(start) | 32 : 0; // | 32: ASCII lower case
+  let c = end > 0 ? raw.charCodeAt(0) : 0;
+  while (c <= 32 && start < end) c = ++start < end ? raw.charCodeAt(start) : 0;
+  while (end > start) {
+    const e = raw.charCodeAt(end - 1);
+    if (e > 32 && e !== 42 /* * */) break;
+    end--;
+  }
+  const first = c | 32; // ASCII lower case
   if (first === 110 /* n */) {
     const text = raw.slice(start, end);
     if (NS_FORMS.has(text.toLowerCase())) {
@@ -283,29 +291,30 @@ export function scanP(raw: string, alpha: number): PrintedP | string {
   }
   let i = start;
   if (first === 112 /* p */) {
-    i++;
-    while (i < end && isSpace(raw.charCodeAt(i))) i++;
+    c = ++i < end ? raw.charCodeAt(i) : 0;
+    while (isSpace(c)) c = ++i < end ? raw.charCodeAt(i) : 0;
   }
   let relation: PRelation = "=";
-  const c = i < end ? raw.charCodeAt(i) : 0;
   if (c === 61 /* = */) {
-    i++;
+    c = ++i < end ? raw.charCodeAt(i) : 0;
   } else if (c === 60 /* < */ || c === 0x2264 /* ≤ */) {
     relation = c === 0x2264 ? "<=" : "<";
-    i++;
-    if (c === 60 && i < end && raw.charCodeAt(i) === 61) {
+    const ascii = c === 60;
+    c = ++i < end ? raw.charCodeAt(i) : 0;
+    if (ascii && c === 61) {
       relation = "<=";
-      i++;
+      c = ++i < end ? raw.charCodeAt(i) : 0;
     }
   } else if (c === 62 /* > */ || c === 0x2265 /* ≥ */) {
     relation = c === 0x2265 ? ">=" : ">";
-    i++;
-    if (c === 62 && i < end && raw.charCodeAt(i) === 61) {
+    const ascii = c === 62;
+    c = ++i < end ? raw.charCodeAt(i) : 0;
+    if (ascii && c === 61) {
       relation = ">=";
-      i++;
+      c = ++i < end ? raw.charCodeAt(i) : 0;
     }
   }
-  while (i < end && isSpace(raw.charCodeAt(i))) i++;
+  while (isSpace(c)) c = ++i < end ? raw.charCodeAt(i) : 0;
   const numberStart = i;
   const value = scanValue(raw, numberStart, end);
   const decimals = scannedDecimals;
