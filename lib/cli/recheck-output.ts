@@ -17,6 +17,11 @@ const MAX_NUMBER_BYTES = 32;
 
 const utf8 = (text: string): Uint8Array => Buffer.from(text, "utf8");
 
+/** What JSON.stringify writes other than as itself: quotes, backslashes, control characters, and (lone) surrogates, which the byte loop leaves to it too. */
+const NEEDS_ESCAPE = /["\\\u0000-\u001f\ud800-\udfff]/;
+/** Texts at least this long are encoded natively by jsonString. */
+const NATIVE_FROM = 48;
+
 /**
  * Result text encoded into a Buffer as it comes, and handed on a full buffer at a time. Writing strings
  * instead meant gluing each batch into one long string (a rope V8 then has to flatten) and the stream
@@ -108,6 +113,15 @@ export class OutputBuffer {
     // every character the loop takes is at most 3 bytes
     if (length * 3 + 2 > this.capacity) return this.text(JSON.stringify(text));
     this.room(length * 3 + 2);
+    if (length >= NATIVE_FROM) {
+      // a longer text (the findings' messages): one native test for anything to escape, one native
+      // UTF-8 encoding; both cost more than the loop below on short texts
+      if (NEEDS_ESCAPE.test(text)) return this.text(JSON.stringify(text));
+      this.buffer[this.used++] = QUOTE;
+      this.used += this.buffer.write(text, this.used, "utf8");
+      this.buffer[this.used++] = QUOTE;
+      return;
+    }
     const buffer = this.buffer;
     let used = this.used;
     buffer[used++] = QUOTE;
