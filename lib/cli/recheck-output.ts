@@ -2,7 +2,7 @@
 // line of a rechecked row written byte by byte, the same bytes as JSON.stringify of the §4.5 object.
 // Kept apart from lib/cli/recheck.ts (which runs as soon as it is loaded) so that the tests can hold the
 // writer to JSON.stringify on many more results than a run of the command would give them.
-import type { Finding, RecheckResult, SkippedCheck } from "@/lib/recheck/types";
+import type { RecheckResult, SkippedCheck } from "@/lib/recheck/types";
 
 const QUOTE = 0x22;
 const BACKSLASH = 0x5c;
@@ -41,7 +41,7 @@ export class OutputBuffer {
     // "drain" 500 times a run (0.2–0.4 s of a 100 000-row run into the bench's pipe; 15 times with 64 KB)
     private readonly capacity = 1 << 16,
   ) {
-    this.buffer = Buffer.allocUnsafe(capacity);
+    this.buffer = Buffer.allocUnsafeSlow(capacity);
   }
 
   /** Appends text as UTF-8. */
@@ -65,8 +65,9 @@ export class OutputBuffer {
   send(): void {
     if (this.used === 0) return;
     const full = this.buffer.subarray(0, this.used);
-    // the sink may hold on to the buffer until it is written out, so what follows goes into a new one
-    this.buffer = Buffer.allocUnsafe(this.capacity);
+    // the sink may hold on to the buffer until it is written out (or hand its memory to another thread:
+    // allocUnsafeSlow, never a slice of Node's shared pool), so what follows goes into a new one
+    this.buffer = Buffer.allocUnsafeSlow(this.capacity);
     this.used = 0;
     this.emit(full);
   }
@@ -179,23 +180,282 @@ export class OutputBuffer {
   }
 }
 
-/** Text made once and kept as UTF-8 bytes; forgotten all at once when it grows too big (the texts are no fixed list). */
-class ByteCache {
-  private readonly map = new Map<string, Uint8Array>();
 
-  constructor(
-    private readonly make: (key: string) => string,
-    private readonly limit = 10_000,
-  ) {}
+/** The kinds of a recomputed figure's value in EncodedLines.ops, in the low bits beside its key's id. */
+const NUMBER = 0;
+const INTERVAL = 1;
+/** a text value: a fixed text's id follows */
+const TEXT = 2;
+const TRUE_VALUE = 3;
+const FALSE_VALUE = 4;
+const NULL_VALUE = 5;
+/** anything else: the index of its JSON text in `strings` follows */
+const OTHER = 6;
+const KIND_BITS = 3;
 
-  get(key: string): Uint8Array {
-    let bytes = this.map.get(key);
-    if (bytes === undefined) {
-      if (this.map.size >= this.limit) this.map.clear();
-      bytes = utf8(this.make(key));
-      this.map.set(key, bytes);
+/** Operations in EncodedLines.ops, each followed by its operands. */
+/** a rechecked row: row, label (index in `strings`, or -1 for null), findings, skipped, recomputed, tail; see JsonLineEncoder.add */
+const RESULT_LINE = 1;
+/** a line given whole: the index of its text in `strings` */
+const TEXT_LINE = 2;
+/** recomputed figures that are not a plain object: the index of their JSON text in `strings` follows */
+const RECOMPUTED_TEXT = -1;
+
+/**
+ * A run of JSON lines as plain data: integers, doubles and strings, which postMessage copies (or, for
+ * the typed arrays, hands over) with no object graph to walk. JsonLineEncoder makes it, JsonLinePrinter
+ * turns it into the lines' bytes: in one thread (JsonLineWriter) or in two (the recheck command).
+ */
+export interface EncodedLines {
+  /** the operations and their operands (RESULT_LINE, TEXT_LINE) */
+  ops: Int32Array<ArrayBuffer>;
+  /** the recomputed figures' numbers, in the order the lines use them */
+  numbers: Float64Array<ArrayBuffer>;
+  /** the texts of these lines alone: labels, messages, whole lines, odd values' JSON */
+  strings: string[];
+  /** the repeated texts first used in these lines (keys, finding heads, skipped checks), as JSON text, their ids continuing the table */
+  texts: string[];
+  /** the table of repeated texts starts again from id 0 with these lines */
+  reset: boolean;
+}
+
+/** What the recheck command's printer thread (lib/cli/json-printer-thread.ts) says: a batch printed and written, the end written, or a failed write. */
+export type PrinterMessage = "printed" | "ended" | { failed: { code: string | undefined; message: string } };
+
+/** Repeated texts the table holds before it starts again (the reasons of skipped checks are no fixed list). */
+const TABLE_LIMIT = 10_000;
+
+/**
+ * The first half of writing JSON lines: each line's parts as the ids of repeated texts, its own texts
+ * and its numbers (EncodedLines), in about a third of the time the bytes take. The same texts come back
+ * row after row — the keys, each skipped check with its reason, finding codes, the RMSEA conventions —
+ * so each is given an id once, looked up by what it is made from (no JSON text made to look it up).
+ */
+export class JsonLineEncoder {
+  private ops = new Int32Array(1 << 12);
+  private opCount = 0;
+  private numbers = new Float64Array(1 << 12);
+  private numberCount = 0;
+  private strings: string[] = [];
+  private texts: string[] = [];
+  /** ids given so far since the table last started again */
+  private textCount = 0;
+  private reset = false;
+  /** a skipped check's text id by reason, then check and subject (a SkippedCheck has no other fields) */
+  private readonly skippedIds = new Map<string, { check: string; subject: string; id: number }[]>();
+  /** `{"code":…,"severity":…,"message":` by code, then severity */
+  private readonly findingHeads = new Map<string, Map<string, number>>();
+  /** `,"key":` of a recomputed figure, by key */
+  private readonly keyIds = new Map<string, number>();
+  /** the JSON text of a recomputed text value (the RMSEA conventions, the matched forms), by value */
+  private readonly valueIds = new Map<string, number>();
+  /** `,"engineVersion":…}` by version */
+  private readonly tailIds = new Map<string, number>();
+  /** the keys of the last result's recomputed fields by position, and their ids */
+  private readonly lastKeys: string[] = [];
+  private readonly lastKeyIds: number[] = [];
+  /** the text values of the last result's recomputed fields by position, and their ids */
+  private readonly lastValues: string[] = [];
+  private readonly lastValueIds: number[] = [];
+
+  /** Lines encoded since the last take(). */
+  get size(): number {
+    return this.opCount;
+  }
+
+  /** A rechecked row's line. */
+  add(row: number, comparison: string | null, result: RecheckResult): void {
+    const { findings, skipped, recomputed, engineVersion } = result;
+    // a row number JSON prints as digits goes in as itself; any other (only tests make them) as its JSON text
+    const plainRow = row >= 0 && row < 0x80000000 && row === Math.floor(row) && !Object.is(row, -0);
+    this.room(5 + 2 * findings.length + skipped.length);
+    const ops = this.ops;
+    let n = this.opCount;
+    ops[n++] = plainRow ? RESULT_LINE : -RESULT_LINE;
+    ops[n++] = plainRow ? row : this.string(JSON.stringify(row));
+    ops[n++] = comparison === null ? -1 : this.string(comparison);
+    ops[n++] = findings.length;
+    for (let i = 0; i < findings.length; i++) {
+      const finding = findings[i];
+      ops[n++] = this.findingHead(finding.code, finding.severity);
+      ops[n++] = this.string(finding.message);
     }
-    return bytes;
+    ops[n++] = skipped.length;
+    for (let i = 0; i < skipped.length; i++) ops[n++] = this.skippedId(skipped[i]);
+    this.opCount = n;
+    this.recomputed(recomputed);
+    let tail = this.tailIds.get(engineVersion);
+    if (tail === undefined) {
+      tail = this.text(',"engineVersion":' + JSON.stringify(engineVersion) + "}");
+      this.tailIds.set(engineVersion, tail);
+    }
+    this.room(1);
+    this.ops[this.opCount++] = tail;
+  }
+
+  /** A line made elsewhere (a row's cell errors), kept in its place among the others; the line feed is added. */
+  addLine(text: string): void {
+    this.room(2);
+    this.ops[this.opCount++] = TEXT_LINE;
+    this.ops[this.opCount++] = this.string(text);
+  }
+
+  /** The lines encoded since the last take(), in arrays of their own (free to hand to another thread). */
+  take(): EncodedLines {
+    const lines: EncodedLines = {
+      ops: this.ops.slice(0, this.opCount),
+      numbers: this.numbers.slice(0, this.numberCount),
+      strings: this.strings,
+      texts: this.texts,
+      reset: this.reset,
+    };
+    this.opCount = 0;
+    this.numberCount = 0;
+    this.strings = [];
+    this.texts = [];
+    this.reset = false;
+    // the table starts again only between runs of lines, so that each run's ids all mean one thing
+    if (this.textCount >= TABLE_LIMIT) this.restartTable();
+    return lines;
+  }
+
+  private restartTable(): void {
+    this.textCount = 0;
+    this.reset = true;
+    this.skippedIds.clear();
+    this.findingHeads.clear();
+    this.keyIds.clear();
+    this.valueIds.clear();
+    this.tailIds.clear();
+    this.lastKeys.length = 0;
+    this.lastKeyIds.length = 0;
+    this.lastValues.length = 0;
+    this.lastValueIds.length = 0;
+  }
+
+  /** JSON.stringify(recomputed): its fields in their own order, undefined ones left out. */
+  private recomputed(recomputed: RecheckResult["recomputed"]): void {
+    if (Object.getPrototypeOf(recomputed) !== Object.prototype) {
+      this.room(2);
+      this.ops[this.opCount++] = RECOMPUTED_TEXT;
+      this.ops[this.opCount++] = this.string(JSON.stringify(recomputed));
+      return;
+    }
+    // the field count goes first; it is known once the fields are done
+    this.room(1);
+    const countAt = this.opCount++;
+    let fields = 0;
+    // every result has the same fields in the same order: the n-th field's key is looked up in the table
+    // only when it is not the key the n-th field had last time (a string compare instead of a Map lookup)
+    const { lastKeys, lastKeyIds, lastValues, lastValueIds } = this;
+    let position = 0;
+    for (const key in recomputed) {
+      const value = recomputed[key];
+      const at = position++;
+      // JSON leaves out what it cannot show (undefined here; functions and symbols are not Values)
+      if (value === undefined || typeof value === "function" || typeof value === "symbol") continue;
+      let keyId = lastKeyIds[at];
+      if (lastKeys[at] !== key) {
+        keyId = this.keyIds.get(key) ?? this.newKey(key);
+        lastKeys[at] = key;
+        lastKeyIds[at] = keyId;
+      }
+      this.room(2);
+      const ops = this.ops;
+      fields++;
+      if (typeof value === "number") {
+        ops[this.opCount++] = (keyId << KIND_BITS) | NUMBER;
+        this.number(value);
+      } else if (typeof value === "string") {
+        // mostly the same text in the same field as last time (the RMSEA conventions): compared, not looked up
+        let valueId = lastValueIds[at];
+        if (lastValues[at] !== value) {
+          valueId = this.valueIds.get(value) ?? this.newValue(value);
+          lastValues[at] = value;
+          lastValueIds[at] = valueId;
+        }
+        ops[this.opCount++] = (keyId << KIND_BITS) | TEXT;
+        ops[this.opCount++] = valueId;
+      } else if (typeof value === "boolean") {
+        ops[this.opCount++] = (keyId << KIND_BITS) | (value ? TRUE_VALUE : FALSE_VALUE);
+      } else if (value === null) {
+        ops[this.opCount++] = (keyId << KIND_BITS) | NULL_VALUE;
+      } else if (isPlainInterval(value)) {
+        ops[this.opCount++] = (keyId << KIND_BITS) | INTERVAL;
+        this.number(value.lo);
+        this.number(value.hi);
+      } else {
+        ops[this.opCount++] = (keyId << KIND_BITS) | OTHER;
+        ops[this.opCount++] = this.string(JSON.stringify(value));
+      }
+    }
+    this.ops[countAt] = fields;
+  }
+
+  private newKey(key: string): number {
+    const id = this.text("," + JSON.stringify(key) + ":");
+    this.keyIds.set(key, id);
+    return id;
+  }
+
+  private newValue(value: string): number {
+    const id = this.text(JSON.stringify(value));
+    this.valueIds.set(value, id);
+    return id;
+  }
+
+  private findingHead(code: string, severity: string): number {
+    let bySeverity = this.findingHeads.get(code);
+    if (bySeverity === undefined) this.findingHeads.set(code, (bySeverity = new Map()));
+    let id = bySeverity.get(severity);
+    if (id === undefined) {
+      id = this.text('{"code":' + JSON.stringify(code) + ',"severity":' + JSON.stringify(severity) + ',"message":');
+      bySeverity.set(severity, id);
+    }
+    return id;
+  }
+
+  private skippedId(skip: SkippedCheck): number {
+    const { check, subject, reason } = skip;
+    // one lookup by reason, then a look along the few checks and subjects that give it (three nested
+    // Map lookups per entry were 1.5 % of a run: six entries a row)
+    let entries = this.skippedIds.get(reason);
+    if (entries === undefined) this.skippedIds.set(reason, (entries = []));
+    for (let i = 0; i < entries.length; i++) {
+      const entry = entries[i];
+      if (entry.check === check && entry.subject === subject) return entry.id;
+    }
+    const id = this.text(JSON.stringify(skip));
+    entries.push({ check, subject, id });
+    return id;
+  }
+
+  /** A new repeated text's id. */
+  private text(json: string): number {
+    this.texts.push(json);
+    return this.textCount++;
+  }
+
+  /** A text of these lines alone: its index in `strings`. */
+  private string(text: string): number {
+    return this.strings.push(text) - 1;
+  }
+
+  private number(value: number): void {
+    if (this.numberCount === this.numbers.length) {
+      const grown = new Float64Array(2 * this.numbers.length);
+      grown.set(this.numbers);
+      this.numbers = grown;
+    }
+    this.numbers[this.numberCount++] = value;
+  }
+
+  /** Makes room for `more` operands. */
+  private room(more: number): void {
+    if (this.opCount + more <= this.ops.length) return;
+    const grown = new Int32Array(Math.max(2 * this.ops.length, this.opCount + more));
+    grown.set(this.ops.subarray(0, this.opCount));
+    this.ops = grown;
   }
 }
 
@@ -226,44 +486,124 @@ const SKIPPED = utf8('],"skipped":[');
 const RECOMPUTED = utf8('],"recomputed":');
 
 /**
- * Writes the JSON lines of rechecked rows: {"row","comparison","findings","skipped","recomputed","engineVersion"},
- * byte for byte what JSON.stringify of that object gives (tests/unit/cli compares the two). The same
- * texts come back row after row — the keys, each skipped check with its reason, finding codes, the
- * RMSEA conventions — so their bytes are made once; the numbers of the rows queued together are
- * printed by one JSON.stringify of an array (V8's own shortest form, so the text cannot differ) and
- * copied out of it one by one. On the bench sheet's 100 000 results this takes about a third less time
- * than JSON.stringify of the parts and Buffer.write of the strings did (0.64–0.69 of it, measured
- * step by step); what is left is mostly V8 printing the doubles (about half) and copying bytes.
+ * The second half: EncodedLines into the bytes of their JSON lines, byte for byte what JSON.stringify
+ * of each line's §4.5 object gives (tests/unit/cli compares the two). The repeated texts are kept as
+ * UTF-8 bytes; the numbers of a run of lines are printed by one JSON.stringify of an array (V8's own
+ * shortest form, so the text cannot differ) and copied out of it one by one: one call per row cost about
+ * 1.4 µs more per row (each call sets up its own string builder, and hands back a rope of its parts).
  */
-export class JsonLineWriter {
-  /** a skipped check's JSON text by reason, check and subject (a SkippedCheck has no other fields) */
-  private readonly skippedText = new Map<string, { check: string; subject: string; text: Uint8Array }[]>();
-  private skippedCount = 0;
-  /** `{"code":…,"severity":…,"message":` by code, then severity */
-  private readonly findingHead = new Map<string, Map<string, Uint8Array>>();
-  /** `,"key":` of a recomputed figure */
-  private readonly keys = new ByteCache((key) => "," + JSON.stringify(key) + ":");
-  /** the text values of recomputed figures (the RMSEA conventions, the matched forms) */
-  private readonly strings = new ByteCache((text) => JSON.stringify(text));
-  /** `,"engineVersion":…}` */
-  private readonly tails = new ByteCache((version) => ',"engineVersion":' + JSON.stringify(version) + "}", 100);
-  /** the lines queued by add() and addLine(): row, label, result (null for a line of text) and text */
-  private readonly rows: number[] = [];
-  private readonly comparisons: (string | null)[] = [];
-  private readonly results: (RecheckResult | null)[] = [];
-  private readonly texts: (string | null)[] = [];
-  /** the numbers of the queued results' recomputed figures, in order; then their JSON text, and where the next one starts */
-  private numbers: number[] = [];
+export class JsonLinePrinter {
+  private readonly table: Uint8Array[] = [];
   private printed = Buffer.allocUnsafe(1 << 16);
-  private at = 1;
-  /** the keys of the last result's recomputed fields by position, and their bytes */
-  private readonly lastKeys: string[] = [];
-  private readonly lastKeyBytes: Uint8Array[] = [];
-  /** the text values of the last result's recomputed fields by position, and their bytes */
-  private readonly lastTexts: string[] = [];
-  private readonly lastTextBytes: Uint8Array[] = [];
 
   constructor(private readonly out: OutputBuffer) {}
+
+  print(lines: EncodedLines): void {
+    const { ops, strings, texts } = lines;
+    const { out, table } = this;
+    if (lines.reset) table.length = 0;
+    for (let i = 0; i < texts.length; i++) table.push(utf8(texts[i]));
+    let at = 0;
+    if (lines.numbers.length > 0) {
+      const printed = JSON.stringify(Array.from(lines.numbers));
+      // only digits, signs, points, "e", "null", commas and brackets: one byte a character
+      if (this.printed.length < printed.length) this.printed = Buffer.allocUnsafe(Math.max(printed.length, 2 * this.printed.length));
+      this.printed.write(printed, 0, "latin1");
+      at = 1;
+    }
+    const printed = this.printed;
+    let n = 0;
+    while (n < ops.length) {
+      const op = ops[n++];
+      if (op === TEXT_LINE) {
+        out.text(strings[ops[n++]]);
+        out.lineFeed();
+        continue;
+      }
+      out.bytes(ROW);
+      if (op === RESULT_LINE) out.integer(ops[n++]);
+      else out.text(strings[ops[n++]]);
+      out.bytes(COMPARISON);
+      const label = ops[n++];
+      if (label < 0) out.bytes(NULL);
+      else out.jsonString(strings[label]);
+      out.bytes(FINDINGS);
+      const findings = ops[n++];
+      for (let i = 0; i < findings; i++) {
+        if (i > 0) out.byte(COMMA);
+        out.bytes(table[ops[n++]]);
+        out.jsonString(strings[ops[n++]]);
+        out.byte(CLOSE_BRACE);
+      }
+      out.bytes(SKIPPED);
+      const skipped = ops[n++];
+      for (let i = 0; i < skipped; i++) {
+        if (i > 0) out.byte(COMMA);
+        out.bytes(table[ops[n++]]);
+      }
+      out.bytes(RECOMPUTED);
+      const fields = ops[n++];
+      if (fields === RECOMPUTED_TEXT) {
+        out.text(strings[ops[n++]]);
+      } else {
+        for (let i = 0; i < fields; i++) {
+          const field = ops[n++];
+          const key = table[field >> KIND_BITS];
+          // the key's bytes start with the comma between fields: the first field has a brace instead
+          if (i === 0) {
+            out.byte(OPEN_BRACE);
+            out.bytes(key, 1);
+          } else {
+            out.bytes(key);
+          }
+          switch (field & ((1 << KIND_BITS) - 1)) {
+            case NUMBER:
+              at = out.numberFrom(printed, at);
+              break;
+            case INTERVAL:
+              out.bytes(INTERVAL_LO);
+              at = out.numberFrom(printed, at);
+              out.bytes(INTERVAL_HI);
+              at = out.numberFrom(printed, at);
+              out.byte(CLOSE_BRACE);
+              break;
+            case TEXT:
+              out.bytes(table[ops[n++]]);
+              break;
+            case TRUE_VALUE:
+              out.bytes(TRUE);
+              break;
+            case FALSE_VALUE:
+              out.bytes(FALSE);
+              break;
+            case NULL_VALUE:
+              out.bytes(NULL);
+              break;
+            default:
+              out.text(strings[ops[n++]]);
+          }
+        }
+        if (fields === 0) out.byte(OPEN_BRACE);
+        out.byte(CLOSE_BRACE);
+      }
+      out.bytes(table[ops[n++]]);
+      out.lineFeed();
+    }
+  }
+}
+
+/**
+ * Writes the JSON lines of rechecked rows in one thread: {"row","comparison","findings","skipped",
+ * "recomputed","engineVersion"}, the encoder's lines printed at each flush(). The recheck command runs
+ * the two halves in two threads instead (lib/cli/recheck.ts).
+ */
+export class JsonLineWriter {
+  private readonly encoder = new JsonLineEncoder();
+  private readonly printer: JsonLinePrinter;
+
+  constructor(out: OutputBuffer) {
+    this.printer = new JsonLinePrinter(out);
+  }
 
   /** One rechecked row's line, line feed included, written at once. */
   write(row: number, comparison: string | null, result: RecheckResult): void {
@@ -271,182 +611,19 @@ export class JsonLineWriter {
     this.flush();
   }
 
-  /**
-   * Queues a rechecked row's line; flush() writes the queued lines. The numbers of all queued rows are
-   * printed by one JSON.stringify: one call per row cost about 1.4 µs more per row (each call sets up
-   * its own string builder, and hands back a rope of its parts that the copy must flatten first).
-   */
+  /** Queues a rechecked row's line; flush() writes the queued lines (their numbers printed together). */
   add(row: number, comparison: string | null, result: RecheckResult): void {
-    this.rows.push(row);
-    this.comparisons.push(comparison);
-    this.results.push(result);
-    this.texts.push(null);
-    const recomputed = result.recomputed;
-    if (Object.getPrototypeOf(recomputed) !== Object.prototype) return;
-    const numbers = this.numbers;
-    for (const key in recomputed) {
-      const value = recomputed[key];
-      if (typeof value === "number") numbers.push(value);
-      else if (typeof value === "object" && value !== null && isPlainInterval(value)) numbers.push(value.lo, value.hi);
-    }
+    this.encoder.add(row, comparison, result);
   }
 
   /** Queues a line made elsewhere (a row's cell errors), to keep the lines in row order; the line feed is added. */
   addLine(text: string): void {
-    this.rows.push(0);
-    this.comparisons.push(null);
-    this.results.push(null);
-    this.texts.push(text);
+    this.encoder.addLine(text);
   }
 
   /** Writes the queued lines. */
   flush(): void {
-    const { rows, comparisons, results, texts, out } = this;
-    if (rows.length === 0) return;
-    const printed = JSON.stringify(this.numbers);
-    // only digits, signs, points, "e", "null", commas and brackets: one byte a character
-    if (this.printed.length < printed.length) this.printed = Buffer.allocUnsafe(Math.max(printed.length, 2 * this.printed.length));
-    this.printed.write(printed, 0, "latin1");
-    this.at = 1;
-    for (let i = 0; i < rows.length; i++) {
-      const result = results[i];
-      if (result === null) {
-        out.text(texts[i]!);
-        out.lineFeed();
-      } else {
-        this.line(rows[i], comparisons[i], result);
-      }
-    }
-    rows.length = 0;
-    comparisons.length = 0;
-    results.length = 0;
-    texts.length = 0;
-    this.numbers = [];
-  }
-
-  private line(row: number, comparison: string | null, result: RecheckResult): void {
-    const out = this.out;
-    const { findings, skipped, recomputed, engineVersion } = result;
-    out.bytes(ROW);
-    out.integer(row);
-    out.bytes(COMPARISON);
-    if (comparison === null) out.bytes(NULL);
-    else out.jsonString(comparison);
-    out.bytes(FINDINGS);
-    for (let i = 0; i < findings.length; i++) {
-      if (i > 0) out.byte(COMMA);
-      this.finding(findings[i]);
-    }
-    out.bytes(SKIPPED);
-    for (let i = 0; i < skipped.length; i++) {
-      if (i > 0) out.byte(COMMA);
-      out.bytes(this.skippedEntry(skipped[i]));
-    }
-    out.bytes(RECOMPUTED);
-    this.recomputed(recomputed);
-    out.bytes(this.tails.get(engineVersion));
-    out.lineFeed();
-  }
-
-  private finding(finding: Finding): void {
-    const { code, severity } = finding;
-    let bySeverity = this.findingHead.get(code);
-    if (bySeverity === undefined) {
-      // the codes and severities are the catalogue's: a fixed, short list
-      this.findingHead.set(code, (bySeverity = new Map()));
-    }
-    let head = bySeverity.get(severity);
-    if (head === undefined) {
-      head = utf8('{"code":' + JSON.stringify(code) + ',"severity":' + JSON.stringify(severity) + ',"message":');
-      bySeverity.set(severity, head);
-    }
-    this.out.bytes(head);
-    this.out.jsonString(finding.message);
-    this.out.byte(CLOSE_BRACE);
-  }
-
-  private skippedEntry(skip: SkippedCheck): Uint8Array {
-    const { check, subject, reason } = skip;
-    // one lookup by reason, then a look along the few checks and subjects that give it (three nested
-    // Map lookups per entry were 1.5 % of a run: six entries a row)
-    let entries = this.skippedText.get(reason);
-    if (entries === undefined) {
-      // the reasons are no fixed list (some are put together from parts): never let the table grow without end
-      if (this.skippedCount >= 10_000) {
-        this.skippedText.clear();
-        this.skippedCount = 0;
-      }
-      this.skippedText.set(reason, (entries = []));
-    }
-    for (let i = 0; i < entries.length; i++) {
-      const entry = entries[i];
-      if (entry.check === check && entry.subject === subject) return entry.text;
-    }
-    const text = utf8(JSON.stringify(skip));
-    entries.push({ check, subject, text });
-    this.skippedCount++;
-    return text;
-  }
-
-  /** JSON.stringify(recomputed): its fields in their own order, undefined ones left out. */
-  private recomputed(recomputed: RecheckResult["recomputed"]): void {
-    const out = this.out;
-    // (add() took its numbers only when this holds)
-    if (Object.getPrototypeOf(recomputed) !== Object.prototype) return out.text(JSON.stringify(recomputed));
-    // the numbers were printed by flush(): each is taken from that text in turn
-    const printed = this.printed;
-    let at = this.at;
-    let first = true;
-    // every result has the same fields in the same order: the n-th field's key is looked up in the table
-    // only when it is not the key the n-th field had last time (a string compare instead of a Map lookup)
-    const { lastKeys, lastKeyBytes, lastTexts, lastTextBytes } = this;
-    let position = 0;
-    for (const key in recomputed) {
-      const value = recomputed[key];
-      const n = position++;
-      // JSON leaves out what it cannot show (undefined here; functions and symbols are not Values)
-      if (value === undefined || typeof value === "function" || typeof value === "symbol") continue;
-      let keyBytes = lastKeyBytes[n];
-      if (lastKeys[n] !== key) {
-        keyBytes = this.keys.get(key);
-        lastKeys[n] = key;
-        lastKeyBytes[n] = keyBytes;
-      }
-      if (first) {
-        // the key's bytes start with the comma between fields: the first field has a brace instead
-        out.byte(OPEN_BRACE);
-        out.bytes(keyBytes, 1);
-        first = false;
-      } else {
-        out.bytes(keyBytes);
-      }
-      if (typeof value === "number") {
-        at = out.numberFrom(printed, at);
-      } else if (typeof value === "string") {
-        // mostly the same text in the same field as last time (the RMSEA conventions): compared, not looked up
-        let bytes = lastTextBytes[n];
-        if (lastTexts[n] !== value) {
-          bytes = this.strings.get(value);
-          lastTexts[n] = value;
-          lastTextBytes[n] = bytes;
-        }
-        out.bytes(bytes);
-      } else if (typeof value === "boolean") {
-        out.bytes(value ? TRUE : FALSE);
-      } else if (value === null) {
-        out.bytes(NULL);
-      } else if (isPlainInterval(value)) {
-        out.bytes(INTERVAL_LO);
-        at = out.numberFrom(printed, at);
-        out.bytes(INTERVAL_HI);
-        at = out.numberFrom(printed, at);
-        out.byte(CLOSE_BRACE);
-      } else {
-        out.text(JSON.stringify(value));
-      }
-    }
-    if (first) out.byte(OPEN_BRACE);
-    out.byte(CLOSE_BRACE);
-    this.at = at;
+    if (this.encoder.size === 0) return;
+    this.printer.print(this.encoder.take());
   }
 }

@@ -3,7 +3,7 @@
 // every kind of value JSON.stringify treats in its own way (escapes, surrogates, -0, NaN, objects that
 // are not intervals), written into small buffers so that every piece also meets a buffer's end.
 import { describe, expect, it } from "vitest";
-import { JsonLineWriter, OutputBuffer } from "@/lib/cli/recheck-output";
+import { JsonLineEncoder, JsonLinePrinter, JsonLineWriter, OutputBuffer } from "@/lib/cli/recheck-output";
 import { recheck } from "@/lib/recheck";
 import type { Finding, RecheckResult, SkippedCheck } from "@/lib/recheck/types";
 import { generateComparisons } from "../../support/generate-comparisons";
@@ -153,6 +153,33 @@ describe("JSON line writer", () => {
       writer.flush();
     });
     expectSameText(text, expected);
+  });
+
+  it("prints the same bytes from encoded lines copied as postMessage copies them, the repeated texts' table starting again on the way", { timeout: TIMEOUT }, () => {
+    // the recheck command encodes in its main thread and prints in another: each run of lines crosses
+    // as a structured clone, its typed arrays handed over (transferred), as the command does
+    const next = random(99);
+    const results = Array.from({ length: 14_000 }, () => someResult(next));
+    // a skipped check with a text of its own in every result: more repeated texts than the table keeps (10 000)
+    results.forEach((result, i) => result.skipped.push({ check: "cfi-mismatch", subject: "a", reason: `needs the baseline χ² and df (${i})` }));
+    const expected = results.map((result, i) => plainLine(i + 1, `C${i + 1}`, result)).join("");
+    const encoder = new JsonLineEncoder();
+    const chunks: Buffer[] = [];
+    const out = new OutputBuffer((chunk) => chunks.push(chunk), 4096);
+    const printer = new JsonLinePrinter(out);
+    let restarts = 0;
+    for (let i = 0; i < results.length; ) {
+      for (const end = Math.min(results.length, i + 1 + Math.floor(next() * 300)); i < end; i++) encoder.add(i + 1, `C${i + 1}`, results[i]);
+      const lines = encoder.take();
+      const copy = structuredClone(lines, { transfer: [lines.ops.buffer, lines.numbers.buffer] });
+      expect(lines.ops.length).toBe(0); // handed over, not shared
+      if (copy.reset) restarts++;
+      printer.print(copy);
+    }
+    printer.print(encoder.take());
+    out.send();
+    expect(restarts).toBeGreaterThan(0);
+    expectSameText(Buffer.concat(chunks).toString("utf8"), expected);
   });
 
   it("writes a label and a message far longer than a buffer", () => {

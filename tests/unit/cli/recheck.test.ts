@@ -1,7 +1,7 @@
 // The recheck command line (DESIGN §4.5), run as a child process exactly as `npm run recheck` runs it.
 import { execFile, spawn } from "node:child_process";
 import { once } from "node:events";
-import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { closeSync, existsSync, mkdtempSync, openSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
@@ -283,6 +283,33 @@ describe("recheck command line: the exact bytes", () => {
       if (format === "jsonl") expect(jsonLines(run.stdout)[5].comparison === "χ".repeat(300_000)).toBe(true);
     });
   }
+
+  it("writes the same JSON lines with --one-thread as with its printer thread", { timeout: TIMEOUT }, async () => {
+    const file = join(scratch, "one-thread.csv");
+    // 3 000 rows: dozens of batches for the printer thread, and a label longer than a buffer (row 6)
+    writeFileSync(file, generatedSheet(3000, 13));
+    const [threads, oneThread] = await Promise.all([recheckCli(file), recheckCli("--one-thread", file)]);
+    expect(threads.status).toBe(0);
+    expect(oneThread.status).toBe(0);
+    expect(jsonLines(threads.stdout)).toHaveLength(3000);
+    expectSameText(threads.stdout, oneThread.stdout);
+  });
+
+  it.skipIf(!existsSync("/dev/full"))("exits 1 with one line when stdout cannot be written (a full disk), in either thread mode", { timeout: TIMEOUT }, async () => {
+    const file = join(scratch, "full-disk.csv");
+    writeFileSync(file, generatedSheet(300, 14));
+    for (const args of [[file], ["--one-thread", file], ["--format", "csv", file]]) {
+      const full = openSync("/dev/full", "w");
+      const child = spawn(TSX, ["lib/cli/recheck.ts", ...args], { cwd: ROOT, stdio: ["ignore", full, "pipe"] });
+      closeSync(full);
+      let stderr = "";
+      child.stderr!.on("data", (chunk: Buffer) => (stderr += chunk.toString()));
+      // the printer thread's failure must end the process too, not leave it waiting
+      const [status] = (await once(child, "close")) as [number];
+      expect(status, args.join(" ")).toBe(1);
+      expect(stderr).toMatch(/^recheck: cannot write the results: ENOSPC[^\n]*\n$/);
+    }
+  });
 
   it("writes the same bytes into a pipe that is read slowly (it waits for the reader, and loses nothing)", { timeout: TIMEOUT }, async () => {
     const file = join(scratch, "slow-reader.csv");
