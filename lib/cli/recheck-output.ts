@@ -189,16 +189,16 @@ const TEXT = 2;
 const TRUE_VALUE = 3;
 const FALSE_VALUE = 4;
 const NULL_VALUE = 5;
-/** anything else: the index of its JSON text in `strings` follows */
+/** anything else: the length of its JSON text in `strings` follows */
 const OTHER = 6;
 const KIND_BITS = 3;
 
 /** Operations in EncodedLines.ops, each followed by its operands. */
-/** a rechecked row: row, label (index in `strings`, or -1 for null), findings, skipped, recomputed, tail; see JsonLineEncoder.add */
+/** a rechecked row: row, label (its length in `strings`, or -1 for null), findings, skipped, recomputed, tail; see JsonLineEncoder.add */
 const RESULT_LINE = 1;
-/** a line given whole: the index of its text in `strings` */
+/** a line given whole: the length of its text in `strings` */
 const TEXT_LINE = 2;
-/** recomputed figures that are not a plain object: the index of their JSON text in `strings` follows */
+/** recomputed figures that are not a plain object: the length of their JSON text in `strings` follows */
 const RECOMPUTED_TEXT = -1;
 
 /**
@@ -211,8 +211,13 @@ export interface EncodedLines {
   ops: Int32Array<ArrayBuffer>;
   /** the recomputed figures' numbers, in the order the lines use them */
   numbers: Float64Array<ArrayBuffer>;
-  /** the texts of these lines alone: labels, messages, whole lines, odd values' JSON */
-  strings: string[];
+  /**
+   * the texts of these lines alone (labels, messages, whole lines, odd values' JSON), one after the
+   * other in the order the operations use them, each operand giving a text's length: one string for
+   * postMessage to copy, where an array of them cost it about twice as long (each message a rope of
+   * its parts, flattened one by one)
+   */
+  strings: string;
   /** the repeated texts first used in these lines (keys, finding heads, skipped checks), as JSON text, their ids continuing the table */
   texts: string[];
   /** the table of repeated texts starts again from id 0 with these lines */
@@ -305,7 +310,7 @@ export class JsonLineEncoder {
     const lines: EncodedLines = {
       ops: this.ops.slice(0, this.opCount),
       numbers: this.numbers.slice(0, this.numberCount),
-      strings: this.strings,
+      strings: this.strings.join(""),
       texts: this.texts,
       reset: this.reset,
     };
@@ -436,9 +441,10 @@ export class JsonLineEncoder {
     return this.textCount++;
   }
 
-  /** A text of these lines alone: its index in `strings`. */
+  /** A text of these lines alone: its length, its place in the lines' order. */
   private string(text: string): number {
-    return this.strings.push(text) - 1;
+    this.strings.push(text);
+    return text.length;
   }
 
   private number(value: number): void {
@@ -500,6 +506,9 @@ export class JsonLinePrinter {
 
   print(lines: EncodedLines): void {
     const { ops, strings, texts } = lines;
+    /** where the next of the lines' own texts starts in `strings` */
+    let from = 0;
+    const next = (length: number) => strings.substring(from, (from += length));
     const { out, table } = this;
     if (lines.reset) table.length = 0;
     for (let i = 0; i < texts.length; i++) table.push(utf8(texts[i]));
@@ -516,23 +525,23 @@ export class JsonLinePrinter {
     while (n < ops.length) {
       const op = ops[n++];
       if (op === TEXT_LINE) {
-        out.text(strings[ops[n++]]);
+        out.text(next(ops[n++]));
         out.lineFeed();
         continue;
       }
       out.bytes(ROW);
       if (op === RESULT_LINE) out.integer(ops[n++]);
-      else out.text(strings[ops[n++]]);
+      else out.text(next(ops[n++]));
       out.bytes(COMPARISON);
       const label = ops[n++];
       if (label < 0) out.bytes(NULL);
-      else out.jsonString(strings[label]);
+      else out.jsonString(next(label));
       out.bytes(FINDINGS);
       const findings = ops[n++];
       for (let i = 0; i < findings; i++) {
         if (i > 0) out.byte(COMMA);
         out.bytes(table[ops[n++]]);
-        out.jsonString(strings[ops[n++]]);
+        out.jsonString(next(ops[n++]));
         out.byte(CLOSE_BRACE);
       }
       out.bytes(SKIPPED);
@@ -544,7 +553,7 @@ export class JsonLinePrinter {
       out.bytes(RECOMPUTED);
       const fields = ops[n++];
       if (fields === RECOMPUTED_TEXT) {
-        out.text(strings[ops[n++]]);
+        out.text(next(ops[n++]));
       } else {
         for (let i = 0; i < fields; i++) {
           const field = ops[n++];
@@ -580,7 +589,7 @@ export class JsonLinePrinter {
               out.bytes(NULL);
               break;
             default:
-              out.text(strings[ops[n++]]);
+              out.text(next(ops[n++]));
           }
         }
         if (fields === 0) out.byte(OPEN_BRACE);
