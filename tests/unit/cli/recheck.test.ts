@@ -295,6 +295,24 @@ describe("recheck command line: the exact bytes", () => {
     expectSameText(threads.stdout, oneThread.stdout);
   });
 
+  it("writes the rows read before a bad byte late in the file, then exits 2 naming it (in either thread mode)", { timeout: TIMEOUT }, async () => {
+    const sheet = generatedSheet(3000, 15);
+    const clean = join(scratch, "late-clean.csv");
+    const late = join(scratch, "late-bad-byte.csv");
+    writeFileSync(clean, sheet);
+    // a Latin-1 "é" in a label of the last row, about a megabyte in
+    writeFileSync(late, Buffer.concat([Buffer.from(sheet.slice(0, sheet.lastIndexOf("Comparison 3000 ")), "utf8"), Buffer.from([0x43, 0xe9]), Buffer.from(sheet.slice(sheet.lastIndexOf("Comparison 3000 ")), "utf8")]));
+    const all = (await recheckCli(clean)).stdout;
+    for (const args of [[late], ["--one-thread", late]]) {
+      const run = await recheckCli(...args);
+      expectRefusal(run, /^recheck: .*late-bad-byte\.csv: not UTF-8 text \(byte 0xE9 at offset \d+; Latin-1\?\)$/);
+      // the rows of the chunks before the bad one, whole and in order
+      expect(jsonLines(run.stdout).length).toBeGreaterThan(2000);
+      expect(all.startsWith(run.stdout)).toBe(true);
+      expect(run.stdout.endsWith("\n")).toBe(true);
+    }
+  });
+
   it.skipIf(!existsSync("/dev/full"))("exits 1 with one line when stdout cannot be written (a full disk), in either thread mode", { timeout: TIMEOUT }, async () => {
     const file = join(scratch, "full-disk.csv");
     writeFileSync(file, generatedSheet(300, 14));
