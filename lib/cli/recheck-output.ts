@@ -232,7 +232,7 @@ const TABLE_LIMIT = 10_000;
 
 /**
  * The first half of writing JSON lines: each line's parts as the ids of repeated texts, its own texts
- * and its numbers (EncodedLines), in about a third of the time the bytes take. The same texts come back
+ * and its numbers (EncodedLines), in about a fifth of the time the bytes take. The same texts come back
  * row after row — the keys, each skipped check with its reason, finding codes, the RMSEA conventions —
  * so each is given an id once, looked up by what it is made from (no JSON text made to look it up).
  */
@@ -263,7 +263,7 @@ export class JsonLineEncoder {
   private readonly lastValues: string[] = [];
   private readonly lastValueIds: number[] = [];
 
-  /** Lines encoded since the last take(). */
+  /** Operands encoded since the last take(): 0 when there is nothing to take. */
   get size(): number {
     return this.opCount;
   }
@@ -272,7 +272,7 @@ export class JsonLineEncoder {
   add(row: number, comparison: string | null, result: RecheckResult): void {
     const { findings, skipped, recomputed, engineVersion } = result;
     // a row number JSON prints as digits goes in as itself; any other (only tests make them) as its JSON text
-    const plainRow = row >= 0 && row < 0x80000000 && row === Math.floor(row) && !Object.is(row, -0);
+    const plainRow = row >= 0 && row < 0x80000000 && row === Math.floor(row);
     this.room(5 + 2 * findings.length + skipped.length);
     const ops = this.ops;
     let n = this.opCount;
