@@ -49,9 +49,11 @@ function servePrinter(port: NonNullable<typeof parentPort>): void {
       printer.print(lines);
       say("printed");
     } catch (error) {
+      const { code, message, syscall } = error as NodeJS.ErrnoException;
+      // anything but a failed write is a fault of ours: the thread's "error", which the main thread reports
+      if (syscall !== "write") throw error;
       // a write that failed (EPIPE: the reader is gone): nothing more is written, the main thread decides
       failed = true;
-      const { code, message } = error as NodeJS.ErrnoException;
       say({ failed: { code, message: String(message).split("\n")[0] } });
     }
   });
